@@ -193,7 +193,8 @@ public final class ScenarioLoader {
       try {
         builder.knots(q, t, v);
       } catch (IllegalArgumentException ex) {
-        throw r.error(key, ex.getMessage());
+        // The builder's message starts with the quantity's key already.
+        throw r.error("drift." + ex.getMessage(), "");
       }
     }
     ParameterSchedule schedule;
@@ -304,7 +305,8 @@ public final class ScenarioLoader {
     }
 
     ScenarioException error(String key, String problem) {
-      return new ScenarioException(source + ": " + key + ": " + firstLine(problem));
+      String p = firstLine(problem);
+      return new ScenarioException(source + ": " + key + (p.isEmpty() ? "" : ": " + p));
     }
 
     void onlyKeys(JsonNode node, String prefix, Set<String> allowed) {
