@@ -1,0 +1,163 @@
+package tauwatch.fit;
+
+/**
+ * The voltage-clamp estimator's settings, with their defaults and validation in one place.
+ *
+ * <p>Immutable and thread-safe. Invalid values are refused at construction with an {@link
+ * IllegalArgumentException} naming the option, so a bad configuration fails at start-up rather than
+ * per pulse.
+ *
+ * @param filterCutoffHz the amplifier filter's −3 dB cutoff; 0 takes the window's {@code
+ *     filterCutoffHz}, a negative value means "no filter" whatever the window says
+ * @param filterCompensation how the filter delay is undone when extrapolating to the onset
+ * @param baselineFraction fraction of the samples before the onset used for the holding current and
+ *     the baseline noise (the latest ones, away from a previous pulse's tail)
+ * @param minBaselineSamples fewest baseline samples accepted
+ * @param filterSettleModes the fit starts this many slowest-filter-mode time constants after the
+ *     onset plus the group delay (e^−6 ≈ 0.25 % of the filter's own ringing is left)
+ * @param skipAfterPeakSamples samples skipped after the raw peak (never fewer than the filter rule)
+ * @param minFitSamples fewest samples in a transient fit
+ * @param minStepMv smallest |step| accepted, mV
+ * @param minRaMOhm lower plausibility limit of Ra
+ * @param maxRaMOhm upper plausibility limit of Ra
+ * @param minRinMOhm lower plausibility limit of Rin
+ * @param maxRinMOhm upper plausibility limit of Rin
+ * @param minCmPf lower plausibility limit of Cm
+ * @param maxCmPf upper plausibility limit of Cm
+ * @param minDecayTaus the step must last at least this many τ (the transient decayed within it)
+ * @param maxResidualToNoise reject when the fit's rms residual exceeds this multiple of the
+ *     baseline rms noise (plus {@code residualFloorFraction} of the transient amplitude)
+ * @param residualFloorFraction residual allowance as a fraction of the transient's amplitude, so a
+ *     noise-free trace is not judged against zero noise
+ * @param onOffTolerance largest relative on/off disagreement of Ra, Rt or τ accepted ...
+ * @param onOffSigmas ... when it is also more than this many combined standard errors
+ * @param maxIterations iteration limit of the Levenberg–Marquardt fit
+ */
+public record EstimatorOptions(
+    double filterCutoffHz,
+    FilterCompensation filterCompensation,
+    double baselineFraction,
+    int minBaselineSamples,
+    double filterSettleModes,
+    int skipAfterPeakSamples,
+    int minFitSamples,
+    double minStepMv,
+    double minRaMOhm,
+    double maxRaMOhm,
+    double minRinMOhm,
+    double maxRinMOhm,
+    double minCmPf,
+    double maxCmPf,
+    double minDecayTaus,
+    double maxResidualToNoise,
+    double residualFloorFraction,
+    double onOffTolerance,
+    double onOffSigmas,
+    int maxIterations) {
+
+  public EstimatorOptions {
+    require(Double.isFinite(filterCutoffHz), "filterCutoffHz", "must be a number");
+    require(filterCompensation != null, "filterCompensation", "must be set");
+    require(baselineFraction > 0 && baselineFraction <= 1, "baselineFraction", "must be in (0, 1]");
+    require(minBaselineSamples >= 2, "minBaselineSamples", "must be at least 2");
+    require(filterSettleModes >= 0, "filterSettleModes", "must not be negative");
+    require(skipAfterPeakSamples >= 0, "skipAfterPeakSamples", "must not be negative");
+    require(minFitSamples >= 5, "minFitSamples", "must be at least 5");
+    require(minStepMv > 0, "minStepMv", "must be positive");
+    require(minRaMOhm > 0 && maxRaMOhm > minRaMOhm, "minRaMOhm/maxRaMOhm", "need 0 < min < max");
+    require(
+        minRinMOhm > 0 && maxRinMOhm > minRinMOhm, "minRinMOhm/maxRinMOhm", "need 0 < min < max");
+    require(minCmPf > 0 && maxCmPf > minCmPf, "minCmPf/maxCmPf", "need 0 < min < max");
+    require(minDecayTaus >= 1, "minDecayTaus", "must be at least 1");
+    require(maxResidualToNoise >= 1, "maxResidualToNoise", "must be at least 1");
+    require(residualFloorFraction >= 0, "residualFloorFraction", "must not be negative");
+    require(onOffTolerance > 0, "onOffTolerance", "must be positive");
+    require(onOffSigmas > 0, "onOffSigmas", "must be positive");
+    require(maxIterations >= 5, "maxIterations", "must be at least 5");
+  }
+
+  /**
+   * Defaults: plausibility limits span the cells of common practice (Ra 5–25 MΩ usable, Rin 50 MΩ–2
+   * GΩ, Cm 5–200 pF; CHECKS.md) with a wide margin, so that only nonsense is refused here and the
+   * health rules judge the rest.
+   */
+  public static EstimatorOptions defaults() {
+    return new EstimatorOptions(
+        0,
+        FilterCompensation.BESSEL_GAIN,
+        0.8,
+        5,
+        6,
+        0,
+        8,
+        0.5,
+        0.5,
+        200,
+        5,
+        100_000,
+        0.5,
+        1000,
+        5,
+        3,
+        0.01,
+        0.10,
+        4,
+        50);
+  }
+
+  /** A copy with another filter cutoff (0 = the window's). */
+  public EstimatorOptions withFilterCutoffHz(double hz) {
+    return new EstimatorOptions(
+        hz,
+        filterCompensation,
+        baselineFraction,
+        minBaselineSamples,
+        filterSettleModes,
+        skipAfterPeakSamples,
+        minFitSamples,
+        minStepMv,
+        minRaMOhm,
+        maxRaMOhm,
+        minRinMOhm,
+        maxRinMOhm,
+        minCmPf,
+        maxCmPf,
+        minDecayTaus,
+        maxResidualToNoise,
+        residualFloorFraction,
+        onOffTolerance,
+        onOffSigmas,
+        maxIterations);
+  }
+
+  /** A copy with another filter compensation. */
+  public EstimatorOptions withFilterCompensation(FilterCompensation c) {
+    return new EstimatorOptions(
+        filterCutoffHz,
+        c,
+        baselineFraction,
+        minBaselineSamples,
+        filterSettleModes,
+        skipAfterPeakSamples,
+        minFitSamples,
+        minStepMv,
+        minRaMOhm,
+        maxRaMOhm,
+        minRinMOhm,
+        maxRinMOhm,
+        minCmPf,
+        maxCmPf,
+        minDecayTaus,
+        maxResidualToNoise,
+        residualFloorFraction,
+        onOffTolerance,
+        onOffSigmas,
+        maxIterations);
+  }
+
+  private static void require(boolean ok, String key, String what) {
+    if (!ok) {
+      throw new IllegalArgumentException("estimator option " + key + " " + what);
+    }
+  }
+}
