@@ -9,7 +9,6 @@ public enum EventKind {
   ALARM("alarm"),
   ALARM_ACK("alarm_ack"),
   MARK("mark"),
-  PULSE_REJECTED("pulse_rejected"),
   STEP_IGNORED("step_ignored"),
   GAP("gap"),
   OVERRUN("overrun"),
@@ -17,7 +16,8 @@ public enum EventKind {
   SIGNAL_LOST("signal_lost"),
   SIGNAL_RESTORED("signal_restored"),
   STREAM_MISMATCH("stream_mismatch"),
-  SOURCE_ERROR("source_error");
+  SOURCE_ERROR("source_error"),
+  ANALYSIS_ERROR("analysis_error");
 
   private final String code;
 

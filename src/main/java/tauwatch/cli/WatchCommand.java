@@ -1,0 +1,73 @@
+package tauwatch.cli;
+
+import java.awt.GraphicsEnvironment;
+import java.time.Duration;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+import tauwatch.monitor.MonitorConfig;
+import tauwatch.monitor.MonitorResult;
+import tauwatch.source.SampleSource;
+
+/** {@code tauwatch watch}: the live monitor. */
+@Command(
+    name = "watch",
+    mixinStandardHelpOptions = true,
+    description = {
+      "Watches a cell live: finds every test pulse, fits it, prints the estimates with their"
+          + " health state, and logs params.csv, events.csv and session.json.",
+      "With no options it watches the built-in simulated cell."
+    })
+final class WatchCommand implements Callable<Integer> {
+  @Spec CommandSpec spec;
+
+  @Option(
+      names = "--source",
+      paramLabel = "URI",
+      description =
+          "sim, sim:SCENARIO (a built-in name or a .toml file), tcp://HOST:PORT, serial:DEVICE or"
+              + " file:PATH (default: ${DEFAULT-VALUE}).")
+  String source = "sim";
+
+  @Option(names = "--headless", description = "Console only, even when a display is present.")
+  boolean headless;
+
+  @Option(
+      names = "--duration",
+      paramLabel = "TIME",
+      converter = DurationConverter.class,
+      description = "Stop after this much stream time, e.g. 20s, 5m, 2h (default: until Ctrl-C).")
+  Duration duration;
+
+  @Option(
+      names = "--no-pacing",
+      description = "Run the simulator as fast as the analysis goes, not in real time.")
+  boolean noPacing;
+
+  @Option(names = "--seed", paramLabel = "N", description = "Noise seed for the simulator.")
+  Long seed;
+
+  @Option(names = "--quiet", description = "Print events only, not every pulse.")
+  boolean quiet;
+
+  @Mixin SessionOptions session;
+
+  @Override
+  public Integer call() throws Exception {
+    MonitorConfig config = ConfigLoader.load(session.config);
+    double filterHz =
+        session.filterCutoffHz != null ? session.filterCutoffHz : config.filterCutoffHz();
+    SampleSource src = SourceOpener.open(source, !noPacing, seed, filterHz);
+    if (!headless && !GraphicsEnvironment.isHeadless()) {
+      spec.commandLine()
+          .getErr()
+          .println("watch: the live view is not in this version; watching on the console");
+    }
+    MonitorResult r =
+        SessionRunner.run(src, config, session, duration, !quiet, spec.commandLine().getOut());
+    return r.complete() ? Main.EXIT_OK : Main.EXIT_BAD_INPUT;
+  }
+}

@@ -1,0 +1,163 @@
+package tauwatch.health;
+
+/**
+ * Judges one parameter's accepted values against its limits and baseline, with debounce and
+ * hysteresis.
+ *
+ * <p>Single-threaded (the analysis thread). Allocation-free per call except for the rule text,
+ * which is built only when the state changes.
+ *
+ * <p>Each rule is turned into a "usage": 0 at the baseline, 1 at the limit. The largest usage
+ * decides: at or above 1 a breach, at or above the warning fraction drifting. Without a baseline
+ * only the absolute range is judged, as plainly inside or outside.
+ */
+final class ParameterJudge {
+  private final ParameterLimits limits;
+  private final int debounce;
+  private final double hysteresis;
+  private final double warning;
+
+  private HealthState state = HealthState.STEADY;
+  private HealthState candidate = HealthState.STEADY;
+  private int candidateRun;
+  private double usage;
+  private int usageRule;
+
+  private static final int RULE_NONE = 0;
+  private static final int RULE_MAX = 1;
+  private static final int RULE_MIN = 2;
+  private static final int RULE_PERCENT = 3;
+  private static final int RULE_ABS = 4;
+
+  ParameterJudge(ParameterLimits limits, HealthCriteria criteria) {
+    this.limits = limits;
+    this.debounce = criteria.debouncePulses();
+    this.hysteresis = criteria.hysteresisPercent() / 100.0;
+    this.warning = criteria.driftWarningFraction();
+  }
+
+  HealthState state() {
+    return state;
+  }
+
+  double usage() {
+    return usage;
+  }
+
+  /**
+   * Judges a new accepted value.
+   *
+   * @return true if the state changed
+   */
+  boolean judge(double v, double baseline) {
+    computeUsage(v, baseline);
+    HealthState target = targetFor(usage);
+    if (state == HealthState.NO_SIGNAL) {
+      // Back from no signal: resume at once, but a breach still needs its debounce.
+      state = target == HealthState.BREACH ? HealthState.DRIFTING : target;
+      candidate = state;
+      candidateRun = 0;
+      return true;
+    }
+    if (target == state) {
+      candidateRun = 0;
+      candidate = state;
+      return false;
+    }
+    if (target != candidate) {
+      candidate = target;
+      candidateRun = 0;
+    }
+    if (++candidateRun >= debounce) {
+      state = target;
+      candidateRun = 0;
+      return true;
+    }
+    return false;
+  }
+
+  /** Forces {@code no signal}; returns true if that is a change. */
+  boolean lose() {
+    if (state == HealthState.NO_SIGNAL) {
+      return false;
+    }
+    state = HealthState.NO_SIGNAL;
+    candidate = state;
+    candidateRun = 0;
+    return true;
+  }
+
+  private HealthState targetFor(double u) {
+    // Hysteresis: a state is left downward only once the usage is clearly below its threshold.
+    double breachExit = state == HealthState.BREACH ? 1 - hysteresis : 1;
+    double driftExit =
+        state == HealthState.DRIFTING || state == HealthState.BREACH
+            ? warning - hysteresis
+            : warning;
+    if (u >= breachExit) {
+      return HealthState.BREACH;
+    }
+    if (u >= driftExit) {
+      return HealthState.DRIFTING;
+    }
+    return HealthState.STEADY;
+  }
+
+  private void computeUsage(double v, double b) {
+    usage = 0;
+    usageRule = RULE_NONE;
+    boolean hasBaseline = !Double.isNaN(b);
+    if (!Double.isNaN(limits.max())) {
+      double u;
+      if (hasBaseline && b < limits.max()) {
+        u = (v - b) / (limits.max() - b);
+      } else {
+        u = v > limits.max() ? 1 + (v - limits.max()) / Math.abs(limits.max()) : 0;
+      }
+      take(u, RULE_MAX);
+    }
+    if (!Double.isNaN(limits.min())) {
+      double u;
+      if (hasBaseline && b > limits.min()) {
+        u = (b - v) / (b - limits.min());
+      } else {
+        u = v < limits.min() ? 1 + (limits.min() - v) / Math.max(1e-12, Math.abs(limits.min())) : 0;
+      }
+      take(u, RULE_MIN);
+    }
+    if (hasBaseline && !Double.isNaN(limits.maxChangePercent()) && b != 0) {
+      take(Math.abs(v - b) / (limits.maxChangePercent() / 100.0 * Math.abs(b)), RULE_PERCENT);
+    }
+    if (hasBaseline && !Double.isNaN(limits.maxChangeAbs())) {
+      take(Math.abs(v - b) / limits.maxChangeAbs(), RULE_ABS);
+    }
+  }
+
+  private void take(double u, int rule) {
+    if (u > usage) {
+      usage = u;
+      usageRule = rule;
+    }
+  }
+
+  /** The rule nearest to (or past) its limit, for events and the view. */
+  String ruleText(double v, double b) {
+    String unit = limits.parameter().unit();
+    switch (usageRule) {
+      case RULE_MAX:
+        return String.format("max %.4g %s", limits.max(), unit);
+      case RULE_MIN:
+        return String.format("min %.4g %s", limits.min(), unit);
+      case RULE_PERCENT:
+        return String.format(
+            "change %+.1f %% from baseline %.4g %s (allowed ±%.4g %%)",
+            100 * (v - b) / Math.abs(b), b, unit, limits.maxChangePercent());
+      case RULE_ABS:
+        return String.format(
+            "change %+.4g %s from baseline %.4g %s (allowed ±%.4g %s)",
+            v - b, unit, b, unit, limits.maxChangeAbs(), unit);
+      default:
+        return "";
+    }
+  }
+}

@@ -1,0 +1,25 @@
+package tauwatch.health;
+
+import tauwatch.fit.Parameter;
+
+/**
+ * The health of one parameter after the latest pulse.
+ *
+ * <p>Immutable.
+ *
+ * @param parameter which parameter
+ * @param state its health state
+ * @param value latest accepted value, NaN if none
+ * @param baseline baseline value, NaN while the baseline is being learnt
+ * @param changePercent change from baseline in percent, NaN without baseline
+ * @param rule the rule closest to being crossed (or crossed), human-readable, empty if none
+ * @param alarmPending a breach alarm raised and not yet acknowledged
+ */
+public record ParameterStatus(
+    Parameter parameter,
+    HealthState state,
+    double value,
+    double baseline,
+    double changePercent,
+    String rule,
+    boolean alarmPending) {}

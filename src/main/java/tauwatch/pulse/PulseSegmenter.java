@@ -1,0 +1,276 @@
+package tauwatch.pulse;
+
+import tauwatch.event.EventKind;
+import tauwatch.event.EventSink;
+import tauwatch.event.MonitorEvent;
+import tauwatch.stream.SampleBlock;
+import tauwatch.stream.SampleBlockHandler;
+import tauwatch.stream.StreamFormat;
+
+/**
+ * Finds test pulses in the stream from the command channel's edges and cuts one window per pulse:
+ * baseline, step (on-transient and steady state) and the off-transient.
+ *
+ * <p>Runs on the ring's consumer thread. The per-sample path allocates nothing: the history and the
+ * window are preallocated and the same {@link PulseWindow} is handed to the listener every time.
+ * Only rare news (an ignored long step) builds an event.
+ *
+ * <p>Edges are changes of the command by more than the threshold from the tracked holding level;
+ * the step amplitude is then measured from the command levels, never assumed. When the command is
+ * not recorded (NaN), the configured {@link PulseSchedule} stands in for it.
+ */
+public final class PulseSegmenter implements SampleBlockHandler {
+  private enum Phase {
+    IDLE,
+    STEP,
+    OFF
+  }
+
+  /** The holding level follows slow command changes over about this many baseline lengths. */
+  private static final int HOLDING_TRACKING_BASELINES = 4;
+
+  private final PulseListener listener;
+  private final EventSink events;
+  private final StreamFormat format;
+  private final double threshold;
+  private final int baselineSamples;
+  private final int maxStepSamples;
+  private final int offSamples;
+  private final double holdingAlpha;
+
+  private final long scheduleFirstOnset;
+  private final long schedulePeriod;
+  private final long scheduleWidth;
+  private final double scheduleStep;
+
+  private final double[] historyCommand;
+  private final double[] historyResponse;
+  private int historyCount;
+  private int historyNext;
+
+  private final PulseWindow window;
+  private Phase phase = Phase.IDLE;
+  private double holdingLevel;
+  private boolean holdingKnown;
+  private int offRemaining;
+  private long pulseCount;
+  private long sweepCount;
+  private long sweepStartIndex;
+  private long ignoredSteps;
+
+  public PulseSegmenter(
+      StreamFormat format, SegmenterOptions options, PulseListener listener, EventSink events) {
+    this.format = format;
+    this.listener = listener;
+    this.events = events;
+    this.threshold = options.edgeThreshold();
+    double rate = format.sampleRateHz();
+    this.baselineSamples = Math.max(4, (int) Math.round(options.baselineMs() * 1e-3 * rate));
+    this.maxStepSamples = Math.max(4, (int) Math.round(options.maxStepMs() * 1e-3 * rate));
+    this.offSamples = Math.max(4, (int) Math.round(options.offWindowMs() * 1e-3 * rate));
+    this.holdingAlpha = 1.0 / (HOLDING_TRACKING_BASELINES * baselineSamples);
+    PulseSchedule s = options.schedule();
+    if (s != null) {
+      scheduleFirstOnset = Math.round(s.firstOnsetMs() * 1e-3 * rate);
+      schedulePeriod = Math.max(2, Math.round(s.periodMs() * 1e-3 * rate));
+      scheduleWidth = Math.max(1, Math.round(s.widthMs() * 1e-3 * rate));
+      scheduleStep = s.stepAmplitude();
+    } else {
+      scheduleFirstOnset = -1;
+      schedulePeriod = 0;
+      scheduleWidth = 0;
+      scheduleStep = Double.NaN;
+    }
+    historyCommand = new double[baselineSamples];
+    historyResponse = new double[baselineSamples];
+    window = new PulseWindow(baselineSamples + maxStepSamples + offSamples + 2);
+    window.mode = format.mode();
+    window.filterCutoffHz = format.filterCutoffHz();
+    window.sampleIntervalS = format.sampleIntervalS();
+    window.streamStartS = format.startTimeS();
+  }
+
+  /** Pulses handed to the listener so far. */
+  public long pulseCount() {
+    return pulseCount;
+  }
+
+  /** Steps seen that were too long to be test pulses. */
+  public long ignoredSteps() {
+    return ignoredSteps;
+  }
+
+  @Override
+  public void onBlock(SampleBlock block, long sequence, boolean endOfBatch) {
+    if (block.lostBeforeSamples > 0
+        || block.hasFlag(SampleBlock.FLAG_SIGNAL_LOST)
+        || block.hasFlag(SampleBlock.FLAG_SIGNAL_RESTORED)) {
+      onDiscontinuity();
+    }
+    long index = block.firstSampleIndex;
+    double[] cmd = block.command;
+    double[] resp = block.response;
+    byte[] sweep = block.sweepStart;
+    for (int i = 0, n = block.length; i < n; i++, index++) {
+      if (sweep[i] != 0) {
+        sweepCount++;
+        sweepStartIndex = index;
+      }
+      double c = cmd[i];
+      if (c != c) { // NaN: no command channel recorded
+        c = scheduledCommand(index);
+      }
+      onSample(index, c, resp[i], block.receivedNanos);
+    }
+  }
+
+  /** The rest of a window cut by a gap or signal loss cannot be trusted; so is the baseline. */
+  private void onDiscontinuity() {
+    if (phase != Phase.IDLE) {
+      window.spansGap = true;
+    }
+    historyCount = 0;
+    historyNext = 0;
+    holdingKnown = phase != Phase.IDLE && holdingKnown;
+  }
+
+  private double scheduledCommand(long index) {
+    if (schedulePeriod == 0) {
+      return 0.0;
+    }
+    long local = index - scheduleFirstOnset;
+    return local >= 0 && local % schedulePeriod < scheduleWidth ? scheduleStep : 0.0;
+  }
+
+  private void onSample(long index, double c, double r, long receivedNanos) {
+    if (!holdingKnown) {
+      holdingLevel = c;
+      holdingKnown = true;
+    }
+    boolean away = Math.abs(c - holdingLevel) > threshold;
+    switch (phase) {
+      case IDLE:
+        if (away && historyCount >= baselineSamples / 2) {
+          beginWindow(index);
+          append(c, r);
+          phase = Phase.STEP;
+        } else if (!away) {
+          holdingLevel += (c - holdingLevel) * holdingAlpha;
+        }
+        break;
+      case STEP:
+        append(c, r);
+        if (!away) {
+          window.offsetIndex = window.length - 1;
+          offRemaining = offSamples - 1; // the offset row itself is the first of the off window
+          phase = Phase.OFF;
+        } else if (window.length - window.onsetIndex > maxStepSamples) {
+          ignoreLongStep(index, c);
+        }
+        break;
+      case OFF:
+        if (away) {
+          // The next step came before the off window filled: close this pulse short.
+          emit(receivedNanos);
+          if (historyCount >= baselineSamples / 2) {
+            beginWindow(index);
+            append(c, r);
+            phase = Phase.STEP;
+          }
+        } else {
+          append(c, r);
+          if (--offRemaining == 0) {
+            emit(receivedNanos);
+          }
+        }
+        break;
+      default:
+        throw new AssertionError(phase);
+    }
+    remember(c, r);
+  }
+
+  private void beginWindow(long onsetIndex) {
+    PulseWindow w = window;
+    int n = historyCount;
+    int start = historyNext - n;
+    if (start < 0) {
+      start += baselineSamples;
+    }
+    for (int k = 0; k < n; k++) {
+      int h = start + k;
+      if (h >= baselineSamples) {
+        h -= baselineSamples;
+      }
+      w.command[k] = historyCommand[h];
+      w.response[k] = historyResponse[h];
+    }
+    w.length = n;
+    w.onsetIndex = n;
+    w.offsetIndex = -1;
+    w.firstSampleIndex = onsetIndex - n;
+    w.spansGap = false;
+    if (sweepCount > 0) {
+      w.sweepNumber = sweepCount;
+      w.sweepTimeS = (onsetIndex - sweepStartIndex) * format.sampleIntervalS();
+    } else {
+      w.sweepNumber = -1;
+      w.sweepTimeS = Double.NaN;
+    }
+  }
+
+  private void append(double c, double r) {
+    PulseWindow w = window;
+    int i = w.length;
+    w.command[i] = c;
+    w.response[i] = r;
+    w.length = i + 1;
+  }
+
+  private void remember(double c, double r) {
+    historyCommand[historyNext] = c;
+    historyResponse[historyNext] = r;
+    if (++historyNext == baselineSamples) {
+      historyNext = 0;
+    }
+    if (historyCount < baselineSamples) {
+      historyCount++;
+    }
+  }
+
+  private void emit(long receivedNanos) {
+    PulseWindow w = window;
+    w.holdingLevel = mean(w.command, 0, w.onsetIndex);
+    w.stepLevel = mean(w.command, w.onsetIndex, w.offsetIndex);
+    w.pulseNumber = ++pulseCount;
+    w.lastSampleReceivedNanos = receivedNanos;
+    phase = Phase.IDLE;
+    listener.onPulse(w);
+  }
+
+  private void ignoreLongStep(long index, double c) {
+    ignoredSteps++;
+    double fromLevel = holdingLevel;
+    // A step this long is the experiment's own (or a new holding level): follow it as holding.
+    holdingLevel = c;
+    phase = Phase.IDLE;
+    historyCount = 0;
+    historyNext = 0;
+    events.onEvent(
+        new MonitorEvent(
+            System.currentTimeMillis(),
+            format.timeOfSampleS(index),
+            EventKind.STEP_IGNORED,
+            String.format(
+                "command stayed at %.3g %s (from %.3g) longer than a test pulse; now tracked as holding",
+                c, format.mode().commandUnit(), fromLevel)));
+  }
+
+  private static double mean(double[] a, int from, int to) {
+    double s = 0;
+    for (int i = from; i < to; i++) {
+      s += a[i];
+    }
+    return to > from ? s / (to - from) : Double.NaN;
+  }
+}

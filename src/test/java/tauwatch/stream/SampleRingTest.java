@@ -1,0 +1,114 @@
+package tauwatch.stream;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Test;
+
+class SampleRingTest {
+
+  @Test
+  void deliversEverySampleInOrderWithStreamIndices() throws Exception {
+    long[] next = {0};
+    long[] bad = {0};
+    SampleBlockHandler h =
+        (b, seq, end) -> {
+          for (int i = 0; i < b.length; i++) {
+            if (b.firstSampleIndex + i != next[0] || b.command[i] != next[0]) {
+              bad[0]++;
+            }
+            next[0]++;
+          }
+        };
+    SampleRing ring = new SampleRing(64, 32, false, h);
+    ring.start();
+    SampleWriter w = ring.writer();
+    for (int i = 0; i < 100_000; i++) {
+      w.put(i, -i);
+      if (i % 1000 == 999) {
+        w.flush();
+      }
+    }
+    w.endOfStream();
+    assertTrue(ring.awaitDrainedAndStop(10, TimeUnit.SECONDS));
+    assertEquals(100_000, next[0]);
+    assertEquals(0, bad[0]);
+    assertEquals(100_000, ring.counters().samplesReceived());
+  }
+
+  @Test
+  void aFullRingDropsCountsAndReportsTheOverrunInBand() throws Exception {
+    CountDownLatch release = new CountDownLatch(1);
+    List<Long> lost = new ArrayList<>();
+    List<Boolean> overrunFlag = new ArrayList<>();
+    long[] received = {0};
+    SampleBlockHandler slow =
+        (b, seq, end) -> {
+          try {
+            release.await();
+          } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+          }
+          if (b.lostBeforeSamples > 0) {
+            lost.add(b.lostBeforeSamples);
+            overrunFlag.add(b.hasFlag(SampleBlock.FLAG_OVERRUN));
+          }
+          received[0] += b.length;
+        };
+    SampleRing ring = new SampleRing(8, 16, true, slow);
+    ring.start();
+    SampleWriter w = ring.writer();
+    for (int i = 0; i < 1000; i++) {
+      w.put(i, i);
+    }
+    release.countDown();
+    Thread.sleep(50);
+    for (int i = 0; i < 16; i++) {
+      w.put(i, i);
+    }
+    w.endOfStream();
+    assertTrue(ring.awaitDrainedAndStop(10, TimeUnit.SECONDS));
+    StreamCounters c = ring.counters();
+    assertEquals(1, c.overrunEpisodes());
+    assertEquals(1016 - received[0], c.overrunSamples(), "every sample is delivered or counted");
+    assertEquals(List.of(c.overrunSamples()), lost);
+    assertEquals(List.of(true), overrunFlag);
+  }
+
+  @Test
+  void gapsAndSignalNewsArriveInStreamOrder() throws Exception {
+    List<String> news = new ArrayList<>();
+    SampleBlockHandler h =
+        (b, seq, end) -> {
+          if (b.lostBeforeSamples > 0) {
+            news.add("lost " + b.lostBeforeSamples + " before " + b.firstSampleIndex);
+          }
+          if (b.hasFlag(SampleBlock.FLAG_SIGNAL_LOST)) {
+            news.add("lost signal at " + b.firstSampleIndex);
+          }
+          if (b.hasFlag(SampleBlock.FLAG_SIGNAL_RESTORED)) {
+            news.add("restored at " + b.firstSampleIndex);
+          }
+        };
+    SampleRing ring = new SampleRing(16, 16, false, h);
+    ring.start();
+    SampleWriter w = ring.writer();
+    for (int i = 0; i < 10; i++) {
+      w.put(i, i);
+    }
+    w.gap(5);
+    w.put(0, 0);
+    w.signalLost();
+    w.signalRestored();
+    w.put(0, 0);
+    w.endOfStream();
+    assertTrue(ring.awaitDrainedAndStop(10, TimeUnit.SECONDS));
+    assertEquals(List.of("lost 5 before 15", "lost signal at 16", "restored at 16"), news);
+    assertEquals(1, ring.counters().gaps());
+    assertEquals(5, ring.counters().gapSamples());
+  }
+}
