@@ -18,8 +18,9 @@ import tauwatch.source.SampleSource;
     mixinStandardHelpOptions = true,
     description = {
       "Analyses a recorded stream as fast as possible and writes the same logs as watch.",
-      "FILE is an interchange CSV: header t_s,cmd_mV,im_pA (voltage clamp) or t_s,cmd_pA,vm_mV"
-          + " (current clamp), then one row per sample."
+      "FILE is an interchange CSV (header t_s,cmd_mV,im_pA for voltage clamp or t_s,cmd_pA,vm_mV"
+          + " for current clamp, then one row per sample) or a raw capture made by watch --capture"
+          + " (decoded again with the device profile stored in it); the content tells which."
     })
 final class ReplayCommand implements Callable<Integer> {
   @Spec CommandSpec spec;
@@ -37,9 +38,21 @@ final class ReplayCommand implements Callable<Integer> {
     MonitorConfig config = ConfigLoader.load(session.config);
     double filterHz =
         session.filterCutoffHz != null ? session.filterCutoffHz : config.filterCutoffHz();
-    SampleSource src = SourceOpener.openFile(file, filterHz);
+    SourceOpener.Opened opened = SourceOpener.openFile(file, filterHz);
+    SampleSource src = opened.source();
     MonitorResult r =
-        SessionRunner.run(src, config, session, null, printPulses, spec.commandLine().getOut());
+        SessionRunner.run(
+            src,
+            config,
+            session,
+            null,
+            printPulses,
+            spec.commandLine().getOut(),
+            m -> {
+              if (opened.profile() != null) {
+                m.sessionField("device_profile", opened.profileField());
+              }
+            });
     return r.complete() ? Main.EXIT_OK : Main.EXIT_BAD_INPUT;
   }
 }

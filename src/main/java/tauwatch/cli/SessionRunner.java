@@ -7,6 +7,7 @@ import java.time.Duration;
 import java.util.Locale;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
+import java.util.function.Consumer;
 import tauwatch.fit.Parameter;
 import tauwatch.monitor.EstimateSummary;
 import tauwatch.monitor.Monitor;
@@ -40,6 +41,21 @@ final class SessionRunner {
       boolean everyPulse,
       PrintWriter out)
       throws UserInputException, IOException, InterruptedException {
+    return run(source, config, session, duration, everyPulse, out, m -> {});
+  }
+
+  /**
+   * @param customise called with the monitor before it runs: extra listeners, session fields
+   */
+  static MonitorResult run(
+      SampleSource source,
+      MonitorConfig config,
+      SessionOptions session,
+      Duration duration,
+      boolean everyPulse,
+      PrintWriter out,
+      Consumer<Monitor> customise)
+      throws UserInputException, IOException, InterruptedException {
     PrintStream console = new PrintStream(new WriterOutputStream(out), true);
     ConsoleReporter reporter = new ConsoleReporter(console, everyPulse);
     EstimateSummary summary = new EstimateSummary();
@@ -52,6 +68,7 @@ final class SessionRunner {
       throw new UserInputException(source.name() + ": " + e.getMessage());
     }
     monitor.addListener(reporter::onEstimate).addListener(summary).addEventListener(reporter);
+    customise.accept(monitor);
     CountDownLatch finished = new CountDownLatch(1);
     Thread hook =
         new Thread(

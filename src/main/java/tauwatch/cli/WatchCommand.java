@@ -1,6 +1,7 @@
 package tauwatch.cli;
 
 import java.awt.GraphicsEnvironment;
+import java.nio.file.Path;
 import java.time.Duration;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
@@ -29,8 +30,26 @@ final class WatchCommand implements Callable<Integer> {
       paramLabel = "URI",
       description =
           "sim, sim:SCENARIO (a built-in name or a .toml file), tcp://HOST:PORT, serial:DEVICE or"
-              + " file:PATH (default: ${DEFAULT-VALUE}).")
-  String source = "sim";
+              + " file:PATH (an interchange CSV or a raw capture). Default: the device address in"
+              + " --profile if one is given, else sim.")
+  String source;
+
+  @Option(
+      names = "--profile",
+      paramLabel = "FILE|NAME",
+      description =
+          "Device profile for tcp:// and serial: sources: a drivers/*.toml file or a built-in name"
+              + " (simulator, usb-board-16bit, usb-board-text, network-daq-float32; default:"
+              + " simulator).")
+  String profile;
+
+  @Option(
+      names = "--capture",
+      paramLabel = "FILE",
+      description =
+          "Record the device stream as received (raw capture with the profile in its header), for"
+              + " replay FILE or --source file:FILE later.")
+  Path capture;
 
   @Option(names = "--headless", description = "Console only, even when a display is present.")
   boolean headless;
@@ -60,14 +79,37 @@ final class WatchCommand implements Callable<Integer> {
     MonitorConfig config = ConfigLoader.load(session.config);
     double filterHz =
         session.filterCutoffHz != null ? session.filterCutoffHz : config.filterCutoffHz();
-    SampleSource src = SourceOpener.open(source, !noPacing, seed, filterHz);
+    String uri = source;
+    if (uri == null) {
+      uri = profile == null ? "sim" : SourceOpener.uriOf(SourceOpener.profile(profile));
+    }
+    SourceOpener.Opened opened =
+        SourceOpener.open(uri, !noPacing, seed, filterHz, profile, capture);
+    SampleSource src = opened.source();
     if (!headless && !GraphicsEnvironment.isHeadless()) {
       spec.commandLine()
           .getErr()
           .println("watch: the live view is not in this version; watching on the console");
     }
-    MonitorResult r =
-        SessionRunner.run(src, config, session, duration, !quiet, spec.commandLine().getOut());
+    MonitorResult r;
+    try (opened) {
+      r =
+          SessionRunner.run(
+              src,
+              config,
+              session,
+              duration,
+              !quiet,
+              spec.commandLine().getOut(),
+              m -> {
+                if (opened.profile() != null) {
+                  m.sessionField("device_profile", opened.profileField());
+                }
+                if (opened.capture() != null) {
+                  m.sessionField("capture", opened.capture().file().toString());
+                }
+              });
+    }
     return r.complete() ? Main.EXIT_OK : Main.EXIT_BAD_INPUT;
   }
 }

@@ -15,6 +15,7 @@ public enum EventKind {
   RESYNC("resync"),
   SIGNAL_LOST("signal_lost"),
   SIGNAL_RESTORED("signal_restored"),
+  LINK("link"),
   STREAM_MISMATCH("stream_mismatch"),
   SOURCE_ERROR("source_error"),
   ANALYSIS_ERROR("analysis_error");

@@ -139,6 +139,7 @@ public final class Monitor {
           duration == null
               ? Long.MAX_VALUE
               : (long) Math.ceil(duration.toNanos() * 1e-9 * format.sampleRateHz());
+      source.attach(events, streamClock);
       SourceRunner runner = new SourceRunner(source, r.writer(), maxSamples, events, streamClock);
       Thread t = new Thread(runner, "tauwatch-source");
       t.setDaemon(true);
@@ -180,6 +181,9 @@ public final class Monitor {
           .put("gap_samples", c.gapSamples())
           .put("overrun_samples", c.overrunSamples())
           .put("corrupt_frames", c.corruptFrames())
+          .put("resyncs", c.resyncs())
+          .put("dropped_frames", c.droppedFrames())
+          .put("signal_losses", c.signalLosses())
           .put("event_rows", events.rows());
       info.writeEnded(Instant.now(), status);
       if (runner.failure instanceof SourceException) {

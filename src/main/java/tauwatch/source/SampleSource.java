@@ -1,6 +1,8 @@
 package tauwatch.source;
 
 import java.io.IOException;
+import tauwatch.event.EventSink;
+import tauwatch.event.StreamClock;
 import tauwatch.stream.SampleWriter;
 import tauwatch.stream.StreamFormat;
 
@@ -38,6 +40,13 @@ public interface SampleSource {
   default boolean hasSweepTrigger() {
     return false;
   }
+
+  /**
+   * Gives the source the session's event log, for news only the source knows (a link closed, frames
+   * rejected as corrupt or as contradicting the device profile). Called once before {@link #run};
+   * sources without such news ignore it.
+   */
+  default void attach(EventSink events, StreamClock clock) {}
 
   /** Asks {@link #run} to return soon. */
   void stop();

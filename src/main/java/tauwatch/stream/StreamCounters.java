@@ -19,6 +19,7 @@ public final class StreamCounters {
   private final AtomicLong corruptFrames = new AtomicLong();
   private final AtomicLong resyncs = new AtomicLong();
   private final AtomicLong signalLosses = new AtomicLong();
+  private final AtomicLong droppedFrames = new AtomicLong();
 
   private static void add(AtomicLong counter, long delta) {
     counter.setRelease(counter.getPlain() + delta);
@@ -85,6 +86,16 @@ public final class StreamCounters {
 
   public long gaps() {
     return gaps.get();
+  }
+
+  /** Counts frames missing from the sequence numbers; called by the decoder's sample feed. */
+  public void addDroppedFrames(long frames) {
+    add(droppedFrames, frames);
+  }
+
+  /** Frames the sequence numbers say never arrived (their samples are counted as a gap). */
+  public long droppedFrames() {
+    return droppedFrames.get();
   }
 
   public long framesReceived() {
