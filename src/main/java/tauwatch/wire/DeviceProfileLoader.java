@@ -113,7 +113,7 @@ public final class DeviceProfileLoader {
     Keys k = new Keys(origin, root);
     k.checkKnown(root, "");
 
-    String name = k.text("name", null);
+    String name = k.text("name", "");
     String description = k.text("description", "");
 
     DeviceProfile.TcpSettings tcp = null;
@@ -260,7 +260,7 @@ public final class DeviceProfileLoader {
     }
     double cmdOffset = k.number("scaling.command_offset", 0);
     double respOffset = k.number("scaling.response_offset", 0);
-    if (name == null) {
+    if (name.isEmpty()) {
       String base = Path.of(origin).getFileName().toString();
       name = base.endsWith(".toml") ? base.substring(0, base.length() - 5) : base;
     }

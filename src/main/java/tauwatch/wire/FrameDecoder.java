@@ -51,12 +51,17 @@ public final class FrameDecoder implements StreamDecoder {
 
   @Override
   public void reset() {
-    if (end - start >= 4 && syncAt(start)) {
-      counters.addCorruptFrame();
+    // An incomplete frame at the head may be a corrupt length field hiding complete frames behind
+    // it: count it and search on through what is buffered before forgetting the rest.
+    while (end > start) {
+      if (end - start >= 4 && syncAt(start)) {
+        counters.addCorruptFrame();
+      } else {
+        skippedBytes++;
+      }
       outOfSync = true;
-    } else if (end > start) {
-      skippedBytes += end - start;
-      outOfSync = true;
+      start++;
+      parse();
     }
     start = 0;
     end = 0;
