@@ -36,7 +36,7 @@ import tauwatch.wire.DeviceProfile;
           + " default 0.5), corrupt (share of frames with one bit flipped; default 0.01), drop"
           + " (share of frames never sent; default 0.01), garbage (share of frames followed by"
           + " 1–64 random bytes; default 0.01), truncate (share of frames cut short; default 0.01),"
-          + " disconnect (seconds between link drops of 1.5 s; default 5)."
+          + " disconnect (seconds of link between drops of 1.5 s; default 5)."
     })
 final class SimulateCommand implements Callable<Integer> {
   @Spec CommandSpec spec;

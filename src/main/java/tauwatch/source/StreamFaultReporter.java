@@ -38,8 +38,9 @@ final class StreamFaultReporter {
   private long reportedMismatch;
   private long lastFaultReportNs = Long.MIN_VALUE / 2;
   private long lastMismatchReportNs = Long.MIN_VALUE / 2;
-  private String lastLinkNews;
-  private long lastLinkReportNs = Long.MIN_VALUE / 2;
+
+  /** When each kind of link news was last written; link news is rare, so a map is fine. */
+  private final java.util.Map<String, Long> linkNewsNs = new java.util.HashMap<>();
 
   StreamFaultReporter(
       EventSink events,
@@ -126,19 +127,20 @@ final class StreamFaultReporter {
   }
 
   /**
-   * Link news (closed, reopened, cannot connect). A repeat of the same news is written at most
-   * every 10 s, so a device that stays away does not fill the log.
+   * Link news (closed, reopened, cannot connect). The same news is written at most every 10 s, so a
+   * device that stays away, or a server that accepts and closes again and again, does not fill the
+   * log.
    */
   void link(String news, long nowNs) {
     if (events == null) {
       return;
     }
-    if (news.equals(lastLinkNews) && nowNs - lastLinkReportNs < 10 * INTERVAL_NS) {
+    Long last = linkNewsNs.get(news);
+    if (last != null && nowNs - last < 10 * INTERVAL_NS) {
       return;
     }
     emit(EventKind.LINK, news);
-    lastLinkNews = news;
-    lastLinkReportNs = nowNs;
+    linkNewsNs.put(news, nowNs);
   }
 
   /** Reports counts not yet reported, regardless of the interval. */

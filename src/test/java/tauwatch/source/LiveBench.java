@@ -9,6 +9,8 @@ import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.atomic.AtomicReference;
+import tauwatch.event.EventKind;
+import tauwatch.event.MonitorEvent;
 import tauwatch.fit.Parameter;
 import tauwatch.monitor.EstimateSummary;
 import tauwatch.monitor.Monitor;
@@ -71,6 +73,11 @@ final class LiveBench implements AutoCloseable {
     final EstimateSummary summary = new EstimateSummary();
     final AtomicReference<MonitorResult> result = new AtomicReference<>();
     final AtomicReference<Throwable> failure = new AtomicReference<>();
+
+    /** Events as they were raised, with System.nanoTime() on arrival. */
+    final List<MonitorEvent> raised = java.util.Collections.synchronizedList(new ArrayList<>());
+
+    final List<Long> raisedNanos = java.util.Collections.synchronizedList(new ArrayList<>());
     private final Thread thread;
 
     Watching(SampleSource source, Path logDir, Duration duration) {
@@ -78,6 +85,13 @@ final class LiveBench implements AutoCloseable {
       monitor =
           new Monitor(source, config, PulseEstimators.forFormat(source.format(), config), logDir);
       monitor.addListener(summary);
+      monitor.addEventListener(
+          e -> {
+            synchronized (raised) {
+              raised.add(e);
+              raisedNanos.add(System.nanoTime());
+            }
+          });
       thread =
           new Thread(
               () -> {
@@ -103,6 +117,24 @@ final class LiveBench implements AutoCloseable {
         throw new AssertionError("monitor failed", failure.get());
       }
       return result.get();
+    }
+
+    /** Arrival time of the first event of a kind at or after {@code afterNanos}, or −1. */
+    long firstNanos(EventKind kind, long afterNanos) {
+      synchronized (raised) {
+        for (int i = 0; i < raised.size(); i++) {
+          if (raised.get(i).kind() == kind && raisedNanos.get(i) >= afterNanos) {
+            return raisedNanos.get(i);
+          }
+        }
+      }
+      return -1;
+    }
+
+    long count(EventKind kind) {
+      synchronized (raised) {
+        return raised.stream().filter(e -> e.kind() == kind).count();
+      }
     }
 
     List<String[]> events() throws IOException {

@@ -14,7 +14,7 @@ public enum FaultKind {
   DISCONNECT(
       "disconnect",
       5.0,
-      "seconds between link drops; each drop lasts "
+      "seconds of link between drops; each drop lasts "
           + SimulatedDaq.OUTAGE_MS
           + " ms (TCP: the connection is closed and refused; serial: the line goes quiet)");
 

@@ -164,7 +164,7 @@ public final class SimulatedDaq {
       if (now - startNs >= nextDropNs) {
         outlet.dropLink(OUTAGE_MS);
         linkDrops++;
-        nextDropNs += (long) (disconnectEveryS * 1e9);
+        nextDropNs = now - startNs + OUTAGE_MS * 1_000_000 + (long) (disconnectEveryS * 1e9);
       }
       long wait;
       while (!stopped && (wait = due - System.nanoTime()) > 0) {
