@@ -94,6 +94,14 @@ public final class SimulatedDaq {
 
   /** Serves until {@code durationS} of stream time (infinite for no limit) or {@link #stop()}. */
   public void serve(double durationS) {
+    serve(durationS, true);
+  }
+
+  /**
+   * Serves as {@link #serve(double)}, or as fast as the outlet takes the bytes when {@code paced}
+   * is false (for making captures and tests; link drops then never happen, since they are timed).
+   */
+  public void serve(double durationS, boolean paced) {
     double rate = profile.sampleRateHz();
     int perFrame = profile.samplesPerFrame();
     int channels = profile.channels();
@@ -159,6 +167,9 @@ public final class SimulatedDaq {
       }
       sample += perFrame;
       sequence++;
+      if (!paced) {
+        continue;
+      }
       long due = startNs + (long) (sample / rate * 1e9);
       long now = System.nanoTime();
       if (now - startNs >= nextDropNs) {
