@@ -162,4 +162,38 @@ class WireCommandsTest {
     assertTrue(raRow.endsWith("FAIL"), raRow);
     assertTrue(r.out().contains("FAIL (Ra"), r.out());
   }
+
+  @Test
+  void checkoutOverTcpMeasuresTheSampleRateAgainstTheWallClock() throws Exception {
+    int port = freePort();
+    String uri = "tcp://127.0.0.1:" + port;
+    Thread server =
+        new Thread(
+            () ->
+                Main.run(
+                    new String[] {
+                      "simulate", "--serve", uri, "--scenario", "model-circuit", "--duration", "5s"
+                    },
+                    new PrintWriter(new StringWriter(), true),
+                    new PrintWriter(new StringWriter(), true)),
+            "test-simulate");
+    server.start();
+    Run r =
+        run(
+            "checkout",
+            "--source",
+            uri,
+            "--expect",
+            "model-circuit",
+            "--duration",
+            "3500ms",
+            "--log-dir",
+            dir.toString());
+    server.join(15_000);
+    System.out.println(r.out());
+    assertEquals(Main.EXIT_OK, r.code(), r.out() + r.err());
+    String rate =
+        r.out().lines().filter(l -> l.startsWith("sample rate")).findFirst().orElseThrow();
+    assertTrue(rate.contains("vs wall clock") && rate.endsWith("pass"), rate);
+  }
 }

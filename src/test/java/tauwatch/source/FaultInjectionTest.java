@@ -148,4 +148,37 @@ class FaultInjectionTest {
     assertTrue(LiveBench.relativeError(w.summary, Parameter.ACCESS_RESISTANCE, 10) < 0.05);
     assertTrue(LiveBench.relativeError(w.summary, Parameter.INPUT_RESISTANCE, 300) < 0.05);
   }
+
+  @Test
+  void aStreamThatContradictsTheProfileGivesMismatchEventsAndNoNumbers() throws Exception {
+    DeviceProfile served = DeviceProfileLoader.loadBuiltIn("simulator");
+    // The monitor is told 20 kHz while the frames state 50 kHz: every τ would be 2.5× off.
+    DeviceProfile told =
+        DeviceProfileLoader.parse(
+            "wrong-rate.toml",
+            served
+                .text()
+                .replace("sample_rate_hz = 50000.0", "sample_rate_hz = 20000.0")
+                .replace("filter_cutoff_hz = 10000.0", "filter_cutoff_hz = 5000.0"));
+    LiveBench.Watching w;
+    try (LiveBench bench = new LiveBench("steady-cell", 1, List.of(), served, 0)) {
+      w =
+          new LiveBench.Watching(
+              DeviceStreamSource.tcp("127.0.0.1", bench.port(), told, null), dir, null);
+      bench.serveWhenConnected(2.2).awaitServed();
+      w.stopAndWait();
+    }
+    long mismatches = w.count(EventKind.STREAM_MISMATCH);
+    assertTrue(mismatches >= 1 && mismatches <= 4, "stream_mismatch events: " + mismatches);
+    String detail =
+        w.raised.stream()
+            .filter(e -> e.kind() == EventKind.STREAM_MISMATCH)
+            .findFirst()
+            .orElseThrow()
+            .detail();
+    assertTrue(detail.contains("state 50000") && detail.contains("says 20000"), detail);
+    assertEquals(0, w.monitor.counters().samplesReceived(), "no sample of a contradicting frame");
+    assertEquals(0, w.summary.pulses());
+    assertTrue(w.count(EventKind.SIGNAL_LOST) >= 1, "no good frames: no signal");
+  }
 }
