@@ -111,4 +111,22 @@ class PackageBoundariesTest {
         .resideInAPackage("tauwatch.cli..")
         .check(classes);
   }
+
+  @Test
+  void theWireCodecStandsOnTheStreamAlone() {
+    noClasses()
+        .that()
+        .resideInAPackage("tauwatch.wire..")
+        .should()
+        .dependOnClassesThat()
+        .resideInAnyPackage(
+            "tauwatch.source..",
+            "tauwatch.record..",
+            "tauwatch.monitor..",
+            "tauwatch.sim..",
+            "tauwatch.checkout..",
+            "tauwatch.view..",
+            "tauwatch.cli..")
+        .check(classes);
+  }
 }

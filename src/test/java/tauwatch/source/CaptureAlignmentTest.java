@@ -164,4 +164,39 @@ class CaptureAlignmentTest {
     List<String> kinds = LiveBench.kinds(w.events());
     assertTrue(kinds.contains("gap"), kinds.toString());
   }
+
+  @org.junit.jupiter.params.ParameterizedTest(name = "{0}")
+  @org.junit.jupiter.params.provider.ValueSource(
+      strings = {"int16 counts", "float32 volts", "text lines with counter"})
+  void everyFramingCarriesTheCellToTheEstimator(String framing) throws Exception {
+    String base =
+        TRIGGER_PROFILE
+            .replace("channels = 3", "channels = 2")
+            .replace("trigger = 2\n", "")
+            .replace("trigger_threshold = 8192\n", "");
+    String toml =
+        switch (framing) {
+          case "float32 volts" ->
+              base.replace("sample_format = \"int16\"", "sample_format = \"float32\"")
+                  .replace("adc_bits = 16\n", "values = \"volts\"\n");
+          case "text lines with counter" ->
+              base.replace("kind = \"binary\"", "kind = \"text\"\nline_counter = true")
+                  .replace("sample_format = \"int16\"\n", "");
+          default -> base;
+        };
+    DeviceProfile p = DeviceProfileLoader.parse(framing + ".toml", toml);
+    assertEquals(framing.startsWith("text"), p.framing() == DeviceProfile.Framing.TEXT);
+    assertEquals(framing.startsWith("float32") ? "volts" : "counts", p.values());
+    LiveBench.Watching w =
+        new LiveBench.Watching(new CaptureFileSource(capture(p, -1, 2.2)), dir.resolve("f"), null);
+    MonitorResult r = w.await();
+    assertTrue(r.complete(), r.status());
+    assertEquals(0, w.monitor.counters().corruptFrames());
+    // Steady cell truth Ra 10 MΩ, Rin 300 MΩ (VC formulas of CHECKS.md); 5 % on the median.
+    assertTrue(w.summary.accepted() >= 3);
+    assertTrue(
+        LiveBench.relativeError(w.summary, tauwatch.fit.Parameter.ACCESS_RESISTANCE, 10) < 0.05);
+    assertTrue(
+        LiveBench.relativeError(w.summary, tauwatch.fit.Parameter.INPUT_RESISTANCE, 300) < 0.05);
+  }
 }
