@@ -36,18 +36,8 @@ class SerialPtyTest {
   void estimatesOverASerialPseudoTerminalMatchTheTruth() throws Exception {
     Path a = dir.resolve("ttyA");
     Path b = dir.resolve("ttyB");
-    Process socat;
+    Process socat = startSocat(a, b);
     try {
-      socat =
-          new ProcessBuilder(
-                  "socat", "-d", "-d", "pty,raw,echo=0,link=" + a, "pty,raw,echo=0,link=" + b)
-              .start();
-    } catch (IOException e) {
-      Assumptions.abort("socat is not installed (.ci/run installs it): " + e.getMessage());
-      return;
-    }
-    try {
-      awaitPtys(socat, a, b);
       DeviceProfile profile = DeviceProfileLoader.loadBuiltIn("simulator");
       LiveBench.Watching w =
           new LiveBench.Watching(
@@ -88,10 +78,100 @@ class SerialPtyTest {
       }
       assertTrue(w.monitor.counters().corruptFrames() == 0);
     } finally {
-      socat.destroy();
-      if (!socat.waitFor(5, TimeUnit.SECONDS)) {
-        socat.destroyForcibly();
+      end(socat);
+    }
+  }
+
+  @Test
+  void unpluggingThePortGivesNoSignalAndPluggingItBackRestoresIt() throws Exception {
+    Path a = dir.resolve("ttyA");
+    Path b = dir.resolve("ttyB");
+    DeviceProfile profile = DeviceProfileLoader.loadBuiltIn("simulator");
+    Process socat = startSocat(a, b);
+    LiveBench.Watching w;
+    long unplugged;
+    long pluggedIn;
+    try {
+      w =
+          new LiveBench.Watching(
+              DeviceStreamSource.serial(a.toString(), profile, null), dir.resolve("logs"), null);
+      Thread.sleep(200);
+      Daq first = new Daq(b, profile, 1);
+      Thread.sleep(1200);
+      unplugged = System.nanoTime();
+      end(socat); // the "cable" is gone: both pty ends vanish
+      first.stop();
+      Thread.sleep(800);
+      socat = startSocat(a, b);
+      pluggedIn = System.nanoTime();
+      Daq second = new Daq(b, profile, 2);
+      long deadline = System.nanoTime() + 8_000_000_000L;
+      while (w.firstNanos(tauwatch.event.EventKind.SIGNAL_RESTORED, pluggedIn) < 0
+          && System.nanoTime() < deadline) {
+        Thread.sleep(50);
       }
+      Thread.sleep(1000);
+      w.stopAndWait();
+      second.stop();
+    } finally {
+      end(socat);
+    }
+    long lost = w.firstNanos(tauwatch.event.EventKind.SIGNAL_LOST, unplugged);
+    long restored = w.firstNanos(tauwatch.event.EventKind.SIGNAL_RESTORED, pluggedIn);
+    System.out.printf(
+        "serial unplug: signal lost %.0f ms after the unplug, restored %.0f ms after re-plugging%n",
+        (lost - unplugged) / 1e6, (restored - pluggedIn) / 1e6);
+    assertTrue(lost > 0 && lost - unplugged < 1_000_000_000L, "no signal within 1 s");
+    assertTrue(restored > 0, "signal restored once the port is back");
+    assertTrue(w.summary.accepted() >= 2);
+  }
+
+  /** A simulated DAQ writing to one pty end on its own thread. */
+  private static final class Daq {
+    private final SerialOutlet outlet;
+    private final SimulatedDaq daq;
+    private final Thread thread;
+
+    Daq(Path port, DeviceProfile profile, long seed) throws Exception {
+      outlet = new SerialOutlet(port.toString(), profile.serial());
+      daq =
+          new SimulatedDaq(
+              new SimulatedRecording(ScenarioLoader.load("steady-cell"), seed),
+              profile,
+              List.of(),
+              7,
+              outlet);
+      thread = new Thread(() -> daq.serve(30), "test-serial-daq");
+      thread.setDaemon(true);
+      thread.start();
+    }
+
+    void stop() throws InterruptedException {
+      daq.stop();
+      thread.join(5000);
+      outlet.close();
+    }
+  }
+
+  private static Process startSocat(Path a, Path b) throws Exception {
+    Process socat;
+    try {
+      socat =
+          new ProcessBuilder(
+                  "socat", "-d", "-d", "pty,raw,echo=0,link=" + a, "pty,raw,echo=0,link=" + b)
+              .start();
+    } catch (IOException e) {
+      Assumptions.abort("socat is not installed (.ci/run installs it): " + e.getMessage());
+      throw e;
+    }
+    awaitPtys(socat, a, b);
+    return socat;
+  }
+
+  private static void end(Process socat) throws InterruptedException {
+    socat.destroy();
+    if (!socat.waitFor(5, TimeUnit.SECONDS)) {
+      socat.destroyForcibly();
     }
   }
 
@@ -111,8 +191,8 @@ class SerialPtyTest {
                   }
                 }
               } catch (IOException e) {
-                // socat ended; the latch times out below with a clear message.
-                System.err.println("socat stderr: " + e.getMessage());
+                // The stream closes when socat is ended; before two PTY lines the latch fails below.
+                System.err.println("socat stderr closed: " + e.getMessage());
               }
             },
             "socat-stderr");
