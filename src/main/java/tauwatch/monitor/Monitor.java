@@ -167,13 +167,21 @@ public final class Monitor {
               streamClock.latestStreamTimeS(),
               EventKind.SESSION_END,
               String.format(
-                  "%s: %d samples, %d pulses (%d accepted), %d gaps, %d samples overrun",
+                  "%s: %d samples, %d pulses (%d accepted), %d gaps, %d samples overrun%s",
                   status,
                   c.samplesReceived(),
                   analysis.pulses(),
                   analysis.accepted(),
                   c.gaps(),
-                  c.overrunSamples())));
+                  c.overrunSamples(),
+                  c.framesReceived() == 0
+                      ? ""
+                      : String.format(
+                          ", %d frames, %d corrupt, %d dropped, %d signal losses",
+                          c.framesReceived(),
+                          c.corruptFrames(),
+                          c.droppedFrames(),
+                          c.signalLosses()))));
       info.put("samples", c.samplesReceived())
           .put("pulses", analysis.pulses())
           .put("accepted_pulses", analysis.accepted())

@@ -191,7 +191,8 @@ class SerialPtyTest {
                   }
                 }
               } catch (IOException e) {
-                // The stream closes when socat is ended; before two PTY lines the latch fails below.
+                // The stream closes when socat is ended; before two PTY lines the latch fails
+                // below.
                 System.err.println("socat stderr closed: " + e.getMessage());
               }
             },
