@@ -40,6 +40,13 @@ final class TransientFit {
     final double[][] covariance = new double[P][P];
 
     double rssPa2;
+
+    /**
+     * Rms residual over the unpooled rows, where the transient is: a misfit there is not diluted by
+     * a long steady state.
+     */
+    double transientRmsPa;
+
     int samples;
     int iterations;
 
@@ -136,6 +143,7 @@ final class TransientFit {
     r.iterations = opt.getIterations();
     double cost = opt.getCost();
     r.rssPa2 = cost * cost + pooledScatter;
+    r.transientRmsPa = Math.sqrt(cost * cost / rows);
     RealMatrix cov;
     try {
       cov = opt.getCovariances(1e-14);
