@@ -31,6 +31,8 @@ package tauwatch.fit;
  *     noise-free trace is not judged against zero noise
  * @param onOffTolerance largest relative on/off disagreement of Ra, Rt or τ accepted ...
  * @param onOffSigmas ... when it is also more than this many combined standard errors
+ * @param minTransientSigmas the fitted transient amplitude must exceed this many of its standard
+ *     errors (otherwise there is no capacitive transient to read)
  * @param maxIterations iteration limit of the Levenberg–Marquardt fit
  */
 public record EstimatorOptions(
@@ -53,6 +55,7 @@ public record EstimatorOptions(
     double residualFloorFraction,
     double onOffTolerance,
     double onOffSigmas,
+    double minTransientSigmas,
     int maxIterations) {
 
   public EstimatorOptions {
@@ -73,6 +76,7 @@ public record EstimatorOptions(
     require(residualFloorFraction >= 0, "residualFloorFraction", "must not be negative");
     require(onOffTolerance > 0, "onOffTolerance", "must be positive");
     require(onOffSigmas > 0, "onOffSigmas", "must be positive");
+    require(minTransientSigmas >= 0, "minTransientSigmas", "must not be negative");
     require(maxIterations >= 5, "maxIterations", "must be at least 5");
   }
 
@@ -99,9 +103,10 @@ public record EstimatorOptions(
         1000,
         5,
         3,
-        0.01,
+        0.003,
         0.10,
         4,
+        5,
         50);
   }
 
@@ -127,6 +132,7 @@ public record EstimatorOptions(
         residualFloorFraction,
         onOffTolerance,
         onOffSigmas,
+        minTransientSigmas,
         maxIterations);
   }
 
@@ -152,6 +158,7 @@ public record EstimatorOptions(
         residualFloorFraction,
         onOffTolerance,
         onOffSigmas,
+        minTransientSigmas,
         maxIterations);
   }
 
