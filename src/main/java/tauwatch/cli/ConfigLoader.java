@@ -246,31 +246,19 @@ public final class ConfigLoader {
                     + comp
                     + "\""));
     }
-    EstimatorOptions d = EstimatorOptions.defaults();
     return r.valid(
         "estimator",
         () ->
-            new EstimatorOptions(
-                d.filterCutoffHz(),
-                fc,
-                d.baselineFraction(),
-                d.minBaselineSamples(),
-                d.filterSettleModes(),
-                d.skipAfterPeakSamples(),
-                d.minFitSamples(),
-                d.minStepMv(),
-                r.number("estimator.min_ra_mohm"),
-                r.number("estimator.max_ra_mohm"),
-                r.number("estimator.min_rin_mohm"),
-                r.number("estimator.max_rin_mohm"),
-                r.number("estimator.min_cm_pf"),
-                r.number("estimator.max_cm_pf"),
-                d.minDecayTaus(),
-                r.number("estimator.max_residual_to_noise"),
-                d.residualFloorFraction(),
-                d.onOffTolerance(),
-                d.onOffSigmas(),
-                d.maxIterations()));
+            EstimatorOptions.defaults().toBuilder()
+                .filterCompensation(fc)
+                .minRaMOhm(r.number("estimator.min_ra_mohm"))
+                .maxRaMOhm(r.number("estimator.max_ra_mohm"))
+                .minRinMOhm(r.number("estimator.min_rin_mohm"))
+                .maxRinMOhm(r.number("estimator.max_rin_mohm"))
+                .minCmPf(r.number("estimator.min_cm_pf"))
+                .maxCmPf(r.number("estimator.max_cm_pf"))
+                .maxResidualToNoise(r.number("estimator.max_residual_to_noise"))
+                .build());
   }
 
   private static double optional(JsonNode table, String key) {
