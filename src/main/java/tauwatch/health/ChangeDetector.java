@@ -10,13 +10,16 @@ import java.util.Arrays;
  * <p>Single-threaded (the analysis thread). All buffers are allocated at construction; {@link
  * #update} allocates nothing (per pulse it sorts two small preallocated arrays).
  *
- * <p>Each accepted value x gives an innovation z = (x − baseline)/σ, clipped to ±{@code
- * winsorSigma} so a single outlier cannot carry the statistic far. The upper statistic is S⁺ =
- * max(0, S⁺ + z − k) and the lower S⁻ = max(0, S⁻ − z − k); a change is declared when either
- * reaches h. The estimated change point is the first pulse after the statistic's last zero (the
- * maximum-likelihood change point of a step of size 2k, Page's rule; for a ramp it lags the true
- * start by about k/slope pulses). After the alarm the statistic is capped at h, so the flag clears
- * within about h/k pulses once the value is back near the baseline.
+ * <p>The reference level is the median of the first {@code noiseMinPulses} accepted values (of the
+ * session, or after the user sets a new baseline): longer than the baseline's few pulses, so that
+ * the reference's own error (≈ 1.25σ/√n) stays well inside the allowance k. Each later accepted
+ * value x gives an innovation z = (x − reference)/σ, clipped to ±{@code winsorSigma} so a single
+ * outlier cannot carry the statistic far. The upper statistic is S⁺ = max(0, S⁺ + z − k) and the
+ * lower S⁻ = max(0, S⁻ − z − k); a change is declared when either reaches h. The estimated change
+ * point is the first pulse after the statistic's last zero (the maximum-likelihood change point of
+ * a step of size 2k, Page's rule; for a ramp it lags the true start by about k/slope pulses). After
+ * the alarm the statistic is capped at h, so the flag clears within about h/k pulses once the value
+ * is back near the baseline.
  *
  * <p>σ is measured robustly from successive differences of the accepted values while the detector
  * is not flagged (1.4826 · MAD / √2, insensitive to slow trends and to isolated steps), over the
@@ -35,6 +38,7 @@ public final class ChangeDetector {
 
   private static final double MAD_TO_SIGMA = 1.482602218505602; // 1/Φ⁻¹(3/4), Gaussian
   private static final double SQRT2 = Math.sqrt(2);
+  private static final int NOISE_REFRESH_PULSES = 16;
 
   private final DriftDetection settings;
   private final boolean watchUp;
@@ -48,6 +52,10 @@ public final class ChangeDetector {
   private int errorNext;
   private double previous = Double.NaN;
   private double noiseSigma = Double.NaN;
+  private int sinceNoise;
+  private final double[] referenceValues;
+  private int referenceCount;
+  private double reference = Double.NaN;
 
   private double upper;
   private double lower;
@@ -72,10 +80,16 @@ public final class ChangeDetector {
     this.diffs = new double[w];
     this.errors = new double[w];
     this.scratch = new double[w];
+    this.referenceValues = new double[settings.noiseMinPulses()];
   }
 
-  /** Forgets the statistic and the flag (a new baseline); the noise measured so far is kept. */
+  /**
+   * Forgets the reference, the statistic and the flag (the user set a new baseline): the reference
+   * is measured again over the next {@code noiseMinPulses}; the noise measured so far is kept.
+   */
   public void restart() {
+    referenceCount = 0;
+    reference = Double.NaN;
     upper = 0;
     lower = 0;
     flagged = NONE;
@@ -99,11 +113,21 @@ public final class ChangeDetector {
       learnNoise(x, standardError);
     }
     previous = x;
-    if (!settings.enabled() || Double.isNaN(baseline) || diffCount < settings.noiseMinPulses()) {
+    if (!settings.enabled()) {
+      return false;
+    }
+    if (Double.isNaN(reference)) {
+      referenceValues[referenceCount++] = x;
+      if (referenceCount == referenceValues.length) {
+        reference = median(referenceValues, referenceCount);
+      }
+      return false;
+    }
+    if (Double.isNaN(baseline) || diffCount < settings.noiseMinPulses()) {
       return false;
     }
     double sigma = scaleFor(baseline);
-    double z = (x - baseline) / sigma;
+    double z = (x - reference) / sigma;
     double c = settings.winsorSigma();
     z = z > c ? c : (z < -c ? -c : z);
     double k = settings.allowanceSigma();
@@ -144,7 +168,12 @@ public final class ChangeDetector {
       if (diffCount < diffs.length) {
         diffCount++;
       }
-      noiseSigma = Double.NaN; // recomputed lazily
+      // Recomputed lazily: every pulse while the window fills, then every 16th (two sorts of the
+      // window per pulse would cost more than the rest of the health rules together).
+      if (diffCount < diffs.length || ++sinceNoise >= NOISE_REFRESH_PULSES) {
+        sinceNoise = 0;
+        noiseSigma = Double.NaN;
+      }
     }
     if (!Double.isNaN(se) && se > 0) {
       errors[errorNext] = se;
@@ -191,7 +220,12 @@ public final class ChangeDetector {
   }
 
   public boolean armed() {
-    return settings.enabled() && diffCount >= settings.noiseMinPulses();
+    return settings.enabled() && !Double.isNaN(reference) && diffCount >= settings.noiseMinPulses();
+  }
+
+  /** The steady level the innovations are measured from, NaN until armed. */
+  public double reference() {
+    return reference;
   }
 
   /** The first pulse of the flagged change (after the statistic's last zero). */

@@ -29,8 +29,8 @@ public record DriftDetection(
     int noiseWindowPulses,
     int noiseMinPulses) {
 
-  public static final double DEFAULT_ALLOWANCE_SIGMA = 0.5;
-  public static final double DEFAULT_THRESHOLD_SIGMA = 12;
+  public static final double DEFAULT_ALLOWANCE_SIGMA = 1.0;
+  public static final double DEFAULT_THRESHOLD_SIGMA = 8;
   public static final double DEFAULT_WINSOR_SIGMA = 3;
   public static final double DEFAULT_MIN_NOISE_PERCENT = 1.0;
   public static final int DEFAULT_NOISE_WINDOW_PULSES = 240;

@@ -70,12 +70,12 @@ public final class HealthMonitor {
     if (baselineRequested.getAndSet(false)) {
       baseline.setNow();
       completed = true;
-    }
-    if (completed) {
-      // A new reference: every detector starts its statistic afresh against it.
+      // A new reference chosen by the user: every detector measures its level afresh.
       for (Parameter p : judged) {
         judges.get(p).detector().restart();
       }
+    }
+    if (completed) {
       events.onEvent(clock.event(t, EventKind.BASELINE_SET, baselineText()));
     }
     for (Parameter p : judged) {
