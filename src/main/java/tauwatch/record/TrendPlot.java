@@ -190,11 +190,10 @@ final class TrendPlot {
     g.setFont(new Font(Font.SANS_SERIF, Font.BOLD, 13));
     g.drawString(p.description() + " (" + p.symbol() + ", " + p.unit() + ")", LEFT, 16);
     g.setFont(new Font(Font.SANS_SERIF, Font.PLAIN, 11));
-    g.drawString(
+    String legend =
         "green: usable span   orange band: drifting   red band: breach   grey dashed: baseline"
-            + "   red dashed: limits",
-        LEFT + 330,
-        16);
+            + "   red dashed: limits";
+    g.drawString(legend, WIDTH - RIGHT - g.getFontMetrics().stringWidth(legend), 16);
     g.dispose();
     return img;
   }
