@@ -34,7 +34,7 @@ class UsableSpansTest {
             new MonitorEvent(
                 0, 10.1, EventKind.BASELINE_SET, "from accepted pulses #1–#20: ra 10 MΩ;"),
             new MonitorEvent(
-                0, 35.1, EventKind.STATE_CHANGE, "ra steady -> no signal: no test pulse for 5.0 s"),
+                0, 32.1, EventKind.STATE_CHANGE, "ra steady -> no signal: no test pulse for 5.0 s"),
             new MonitorEvent(
                 0,
                 44.6,
