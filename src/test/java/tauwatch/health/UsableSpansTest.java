@@ -54,7 +54,7 @@ class UsableSpansTest {
     assertEquals("baseline set anew", spans.get(2).endReason());
     assertEquals(90, spans.get(3).firstPulse());
     assertEquals("end of recording", spans.get(3).endReason());
-    assertEquals(9, spans.get(3).lastSweep());
+    assertEquals(10, spans.get(3).lastSweep()); // pulse 100, sweep = n / 10
   }
 
   @Test
