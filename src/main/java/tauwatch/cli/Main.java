@@ -20,7 +20,12 @@ import picocli.CommandLine.Command;
           + " resistance, capacitance, time constant and holding current, from every test pulse.",
       "It observes and alarms; it never drives the amplifier."
     },
-    subcommands = {WatchCommand.class, ReplayCommand.class, CommandLine.HelpCommand.class})
+    subcommands = {
+      WatchCommand.class,
+      ReplayCommand.class,
+      ReportCommand.class,
+      CommandLine.HelpCommand.class
+    })
 public final class Main {
   public static final int EXIT_OK = 0;
   public static final int EXIT_BAD_INPUT = 1;
