@@ -82,38 +82,34 @@ public record TrendSummary(
     return Double.NaN;
   }
 
-  /** The state changes of {@code p}: stream time and new state, from the event log. */
+  /** Seconds {@code p} spent in each state between {@code t0} and {@code t1}, by state ordinal. */
   static double[] secondsInState(Parameter p, List<MonitorEvent> events, double t0, double t1) {
     double[] out = new double[HealthState.values().length];
     HealthState state = HealthState.STEADY;
     double since = t0;
-    for (MonitorEvent e : events) {
-      if (e.kind() != EventKind.STATE_CHANGE || Double.isNaN(e.streamTimeS())) {
-        continue;
-      }
-      Matcher m = STATE_CHANGE.matcher(e.detail());
-      if (!m.find() || !m.group(1).equals(p.key())) {
-        continue;
-      }
-      double t = Math.min(Math.max(e.streamTimeS(), t0), t1);
+    for (StateChange c : changes(p, events)) {
+      double t = Math.min(Math.max(c.streamTimeS(), t0), t1);
       out[state.ordinal()] += t - since;
-      state = LoggedPulse.stateOf(m.group(3));
+      state = c.state();
       since = t;
     }
     out[state.ordinal()] += Math.max(0, t1 - since);
     return out;
   }
 
-  /** The state changes of a parameter as (time, state) pairs, for drawing. */
-  public static List<Object[]> changes(Parameter p, List<MonitorEvent> events) {
-    List<Object[]> out = new java.util.ArrayList<>();
+  /** A parameter's entry into a state, read from the event log. */
+  public record StateChange(double streamTimeS, HealthState state) {}
+
+  /** The state changes of a parameter in stream order, from the event log. */
+  public static List<StateChange> changes(Parameter p, List<MonitorEvent> events) {
+    List<StateChange> out = new java.util.ArrayList<>();
     for (MonitorEvent e : events) {
-      if (e.kind() != EventKind.STATE_CHANGE) {
+      if (e.kind() != EventKind.STATE_CHANGE || Double.isNaN(e.streamTimeS())) {
         continue;
       }
       Matcher m = STATE_CHANGE.matcher(e.detail());
       if (m.find() && m.group(1).equals(p.key())) {
-        out.add(new Object[] {e.streamTimeS(), LoggedPulse.stateOf(m.group(3))});
+        out.add(new StateChange(e.streamTimeS(), LoggedPulse.stateOf(m.group(3))));
       }
     }
     return out;

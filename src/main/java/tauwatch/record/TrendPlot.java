@@ -7,7 +7,6 @@ import java.awt.Graphics2D;
 import java.awt.RenderingHints;
 import java.awt.image.BufferedImage;
 import java.util.List;
-import java.util.Locale;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import tauwatch.event.EventKind;
@@ -95,11 +94,11 @@ final class TrendPlot {
       g.fillRect(x0, TOP, x1 - x0, HEIGHT - TOP - BOTTOM);
     }
     // This parameter's drifting and breach stretches.
-    List<Object[]> ch = TrendSummary.changes(p, events);
+    List<TrendSummary.StateChange> ch = TrendSummary.changes(p, events);
     for (int i = 0; i < ch.size(); i++) {
-      HealthState st = (HealthState) ch.get(i)[1];
-      double from = (Double) ch.get(i)[0];
-      double to = i + 1 < ch.size() ? (Double) ch.get(i + 1)[0] : t1;
+      HealthState st = ch.get(i).state();
+      double from = ch.get(i).streamTimeS();
+      double to = i + 1 < ch.size() ? ch.get(i + 1).streamTimeS() : t1;
       Color c =
           st == HealthState.BREACH
               ? new Color(250, 214, 214)
@@ -113,17 +112,22 @@ final class TrendPlot {
     g.setColor(new Color(200, 200, 200));
     g.drawRect(LEFT, TOP, WIDTH - LEFT - RIGHT, HEIGHT - TOP - BOTTOM);
     g.setFont(new Font(Font.SANS_SERIF, Font.PLAIN, 11));
-    for (int i = 0; i <= 4; i++) {
-      double y = a.y0 + i * (a.y1 - a.y0) / 4;
+    double yStep = AxisTicks.step(a.y0, a.y1, 5);
+    for (double y : AxisTicks.ticks(a.y0, a.y1, 5)) {
       int py = a.y(y);
       g.setColor(new Color(235, 235, 235));
       g.drawLine(LEFT + 1, py, WIDTH - RIGHT - 1, py);
       g.setColor(Color.DARK_GRAY);
-      g.drawString(String.format(Locale.ROOT, "%.4g", y), 6, py + 4);
+      g.drawString(AxisTicks.label(y, yStep), 6, py + 4);
     }
-    for (int i = 0; i <= 6; i++) {
-      double t = a.t0 + i * (a.t1 - a.t0) / 6;
-      g.drawString(String.format(Locale.ROOT, "%.0f s", t), a.x(t) - 14, HEIGHT - BOTTOM + 16);
+    // Long recordings read better in minutes.
+    boolean minutes = a.t1 - a.t0 > 1200;
+    double unit = minutes ? 60 : 1;
+    double tStep = AxisTicks.step(a.t0 / unit, a.t1 / unit, 8);
+    for (double tu : AxisTicks.ticks(a.t0 / unit, a.t1 / unit, 8)) {
+      String text = AxisTicks.label(tu, tStep) + (minutes ? " min" : " s");
+      int x = a.x(tu * unit);
+      g.drawString(text, x - g.getFontMetrics().stringWidth(text) / 2, HEIGHT - BOTTOM + 16);
     }
     // Limits and baseline.
     g.setStroke(
@@ -166,6 +170,18 @@ final class TrendPlot {
         }
       }
     }
+    // Rejected pulses: grey crosses where they would lie, so a gap in the trace has its reason.
+    g.setStroke(new BasicStroke(1f));
+    g.setColor(new Color(150, 150, 150));
+    for (LoggedPulse r : pulses) {
+      double v = r.values()[p.ordinal()];
+      if (!r.accepted() && !Double.isNaN(v) && v >= a.y0 && v <= a.y1) {
+        int x = a.x(r.streamTimeS());
+        int y = a.y(v);
+        g.drawLine(x - 3, y - 3, x + 3, y + 3);
+        g.drawLine(x - 3, y + 3, x + 3, y - 3);
+      }
+    }
     // Values.
     g.setStroke(new BasicStroke(1.3f));
     g.setColor(new Color(20, 60, 140));
@@ -191,8 +207,8 @@ final class TrendPlot {
     g.drawString(p.description() + " (" + p.symbol() + ", " + p.unit() + ")", LEFT, 16);
     g.setFont(new Font(Font.SANS_SERIF, Font.PLAIN, 11));
     String legend =
-        "green: usable span   orange band: drifting   red band: breach   grey dashed: baseline"
-            + "   red dashed: limits";
+        "green: usable · orange: drifting · red: breach · grey dashes: baseline · red dashes:"
+            + " limits · x: rejected";
     g.drawString(legend, WIDTH - RIGHT - g.getFontMetrics().stringWidth(legend), 16);
     g.dispose();
     return img;
