@@ -16,6 +16,7 @@ import java.util.Set;
 import tauwatch.fit.EstimatorOptions;
 import tauwatch.fit.FilterCompensation;
 import tauwatch.fit.Parameter;
+import tauwatch.health.DriftDetection;
 import tauwatch.health.HealthCriteria;
 import tauwatch.health.ParameterLimits;
 import tauwatch.monitor.MonitorConfig;
@@ -205,6 +206,18 @@ public final class ConfigLoader {
                           optional(t, "max_change"))));
         }
       }
+      DriftDetection drift =
+          r.valid(
+              "drift",
+              () ->
+                  new DriftDetection(
+                      r.bool("drift.enabled"),
+                      r.number("drift.allowance_sigma"),
+                      r.number("drift.threshold_sigma"),
+                      r.number("drift.winsor_sigma"),
+                      r.number("drift.min_noise_percent"),
+                      r.integer("drift.noise_window_pulses"),
+                      r.integer("drift.noise_min_pulses")));
       HealthCriteria health =
           r.valid(
               "health",
@@ -215,7 +228,8 @@ public final class ConfigLoader {
                       r.number("health.hysteresis_percent"),
                       r.number("health.drift_warning_fraction"),
                       r.number("health.no_pulse_timeout_s"),
-                      limits));
+                      limits,
+                      drift));
       @SuppressWarnings("unchecked")
       Map<String, Object> asLoaded = TOML.convertValue(c, Map.class);
       return new MonitorConfig(seg, edgePa, filterHz, estimator, health, asLoaded);
@@ -246,31 +260,19 @@ public final class ConfigLoader {
                     + comp
                     + "\""));
     }
-    EstimatorOptions d = EstimatorOptions.defaults();
     return r.valid(
         "estimator",
         () ->
-            new EstimatorOptions(
-                d.filterCutoffHz(),
-                fc,
-                d.baselineFraction(),
-                d.minBaselineSamples(),
-                d.filterSettleModes(),
-                d.skipAfterPeakSamples(),
-                d.minFitSamples(),
-                d.minStepMv(),
-                r.number("estimator.min_ra_mohm"),
-                r.number("estimator.max_ra_mohm"),
-                r.number("estimator.min_rin_mohm"),
-                r.number("estimator.max_rin_mohm"),
-                r.number("estimator.min_cm_pf"),
-                r.number("estimator.max_cm_pf"),
-                d.minDecayTaus(),
-                r.number("estimator.max_residual_to_noise"),
-                d.residualFloorFraction(),
-                d.onOffTolerance(),
-                d.onOffSigmas(),
-                d.maxIterations()));
+            EstimatorOptions.defaults().toBuilder()
+                .filterCompensation(fc)
+                .minRaMOhm(r.number("estimator.min_ra_mohm"))
+                .maxRaMOhm(r.number("estimator.max_ra_mohm"))
+                .minRinMOhm(r.number("estimator.min_rin_mohm"))
+                .maxRinMOhm(r.number("estimator.max_rin_mohm"))
+                .minCmPf(r.number("estimator.min_cm_pf"))
+                .maxCmPf(r.number("estimator.max_cm_pf"))
+                .maxResidualToNoise(r.number("estimator.max_residual_to_noise"))
+                .build());
   }
 
   private static double optional(JsonNode table, String key) {

@@ -25,6 +25,7 @@ import picocli.CommandLine.Command;
       ReplayCommand.class,
       SimulateCommand.class,
       CheckoutCommand.class,
+      ReportCommand.class,
       CommandLine.HelpCommand.class
     })
 public final class Main {

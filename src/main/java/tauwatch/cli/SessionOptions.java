@@ -25,4 +25,10 @@ final class SessionOptions {
           "Cutoff of the amplifier's 4-pole Bessel filter the data went through, where the source"
               + " does not say (overrides amplifier.filter_cutoff_hz).")
   Double filterCutoffHz;
+
+  @Option(
+      names = "--no-report",
+      description =
+          "Do not write spans.csv, the trend plots and report.html when the session ends.")
+  boolean noReport;
 }

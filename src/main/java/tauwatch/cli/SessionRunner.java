@@ -92,6 +92,9 @@ final class SessionRunner {
       removeHook(hook);
     }
     printSummary(result, summary, out);
+    if (!session.noReport && result.sessionDir() != null) {
+      ReportCommand.writeReport(result.sessionDir(), out);
+    }
     return result;
   }
 

@@ -31,6 +31,8 @@ package tauwatch.fit;
  *     noise-free trace is not judged against zero noise
  * @param onOffTolerance largest relative on/off disagreement of Ra, Rt or τ accepted ...
  * @param onOffSigmas ... when it is also more than this many combined standard errors
+ * @param minTransientSigmas the fitted transient amplitude must exceed this many of its standard
+ *     errors (otherwise there is no capacitive transient to read)
  * @param maxIterations iteration limit of the Levenberg–Marquardt fit
  */
 public record EstimatorOptions(
@@ -53,6 +55,7 @@ public record EstimatorOptions(
     double residualFloorFraction,
     double onOffTolerance,
     double onOffSigmas,
+    double minTransientSigmas,
     int maxIterations) {
 
   public EstimatorOptions {
@@ -73,6 +76,7 @@ public record EstimatorOptions(
     require(residualFloorFraction >= 0, "residualFloorFraction", "must not be negative");
     require(onOffTolerance > 0, "onOffTolerance", "must be positive");
     require(onOffSigmas > 0, "onOffSigmas", "must be positive");
+    require(minTransientSigmas >= 0, "minTransientSigmas", "must not be negative");
     require(maxIterations >= 5, "maxIterations", "must be at least 5");
   }
 
@@ -99,60 +103,205 @@ public record EstimatorOptions(
         1000,
         5,
         3,
-        0.01,
+        0.003,
         0.10,
         4,
+        5,
         50);
   }
 
   /** A copy with another filter cutoff (0 = the window's). */
   public EstimatorOptions withFilterCutoffHz(double hz) {
-    return new EstimatorOptions(
-        hz,
-        filterCompensation,
-        baselineFraction,
-        minBaselineSamples,
-        filterSettleModes,
-        skipAfterPeakSamples,
-        minFitSamples,
-        minStepMv,
-        minRaMOhm,
-        maxRaMOhm,
-        minRinMOhm,
-        maxRinMOhm,
-        minCmPf,
-        maxCmPf,
-        minDecayTaus,
-        maxResidualToNoise,
-        residualFloorFraction,
-        onOffTolerance,
-        onOffSigmas,
-        maxIterations);
+    return toBuilder().filterCutoffHz(hz).build();
   }
 
   /** A copy with another filter compensation. */
   public EstimatorOptions withFilterCompensation(FilterCompensation c) {
-    return new EstimatorOptions(
-        filterCutoffHz,
-        c,
-        baselineFraction,
-        minBaselineSamples,
-        filterSettleModes,
-        skipAfterPeakSamples,
-        minFitSamples,
-        minStepMv,
-        minRaMOhm,
-        maxRaMOhm,
-        minRinMOhm,
-        maxRinMOhm,
-        minCmPf,
-        maxCmPf,
-        minDecayTaus,
-        maxResidualToNoise,
-        residualFloorFraction,
-        onOffTolerance,
-        onOffSigmas,
-        maxIterations);
+    return toBuilder().filterCompensation(c).build();
+  }
+
+  /** A builder starting from these options, for changing a few of them. */
+  public Builder toBuilder() {
+    return new Builder(this);
+  }
+
+  /** Changes some options of a copy; validation happens in {@link #build()}. Not thread-safe. */
+  public static final class Builder {
+    private double filterCutoffHz;
+    private FilterCompensation filterCompensation;
+    private double baselineFraction;
+    private int minBaselineSamples;
+    private double filterSettleModes;
+    private int skipAfterPeakSamples;
+    private int minFitSamples;
+    private double minStepMv;
+    private double minRaMOhm;
+    private double maxRaMOhm;
+    private double minRinMOhm;
+    private double maxRinMOhm;
+    private double minCmPf;
+    private double maxCmPf;
+    private double minDecayTaus;
+    private double maxResidualToNoise;
+    private double residualFloorFraction;
+    private double onOffTolerance;
+    private double onOffSigmas;
+    private double minTransientSigmas;
+    private int maxIterations;
+
+    private Builder(EstimatorOptions o) {
+      filterCutoffHz = o.filterCutoffHz;
+      filterCompensation = o.filterCompensation;
+      baselineFraction = o.baselineFraction;
+      minBaselineSamples = o.minBaselineSamples;
+      filterSettleModes = o.filterSettleModes;
+      skipAfterPeakSamples = o.skipAfterPeakSamples;
+      minFitSamples = o.minFitSamples;
+      minStepMv = o.minStepMv;
+      minRaMOhm = o.minRaMOhm;
+      maxRaMOhm = o.maxRaMOhm;
+      minRinMOhm = o.minRinMOhm;
+      maxRinMOhm = o.maxRinMOhm;
+      minCmPf = o.minCmPf;
+      maxCmPf = o.maxCmPf;
+      minDecayTaus = o.minDecayTaus;
+      maxResidualToNoise = o.maxResidualToNoise;
+      residualFloorFraction = o.residualFloorFraction;
+      onOffTolerance = o.onOffTolerance;
+      onOffSigmas = o.onOffSigmas;
+      minTransientSigmas = o.minTransientSigmas;
+      maxIterations = o.maxIterations;
+    }
+
+    public Builder filterCutoffHz(double v) {
+      filterCutoffHz = v;
+      return this;
+    }
+
+    public Builder filterCompensation(FilterCompensation v) {
+      filterCompensation = v;
+      return this;
+    }
+
+    public Builder baselineFraction(double v) {
+      baselineFraction = v;
+      return this;
+    }
+
+    public Builder minBaselineSamples(int v) {
+      minBaselineSamples = v;
+      return this;
+    }
+
+    public Builder filterSettleModes(double v) {
+      filterSettleModes = v;
+      return this;
+    }
+
+    public Builder skipAfterPeakSamples(int v) {
+      skipAfterPeakSamples = v;
+      return this;
+    }
+
+    public Builder minFitSamples(int v) {
+      minFitSamples = v;
+      return this;
+    }
+
+    public Builder minStepMv(double v) {
+      minStepMv = v;
+      return this;
+    }
+
+    public Builder minRaMOhm(double v) {
+      minRaMOhm = v;
+      return this;
+    }
+
+    public Builder maxRaMOhm(double v) {
+      maxRaMOhm = v;
+      return this;
+    }
+
+    public Builder minRinMOhm(double v) {
+      minRinMOhm = v;
+      return this;
+    }
+
+    public Builder maxRinMOhm(double v) {
+      maxRinMOhm = v;
+      return this;
+    }
+
+    public Builder minCmPf(double v) {
+      minCmPf = v;
+      return this;
+    }
+
+    public Builder maxCmPf(double v) {
+      maxCmPf = v;
+      return this;
+    }
+
+    public Builder minDecayTaus(double v) {
+      minDecayTaus = v;
+      return this;
+    }
+
+    public Builder maxResidualToNoise(double v) {
+      maxResidualToNoise = v;
+      return this;
+    }
+
+    public Builder residualFloorFraction(double v) {
+      residualFloorFraction = v;
+      return this;
+    }
+
+    public Builder onOffTolerance(double v) {
+      onOffTolerance = v;
+      return this;
+    }
+
+    public Builder onOffSigmas(double v) {
+      onOffSigmas = v;
+      return this;
+    }
+
+    public Builder minTransientSigmas(double v) {
+      minTransientSigmas = v;
+      return this;
+    }
+
+    public Builder maxIterations(int v) {
+      maxIterations = v;
+      return this;
+    }
+
+    public EstimatorOptions build() {
+      return new EstimatorOptions(
+          filterCutoffHz,
+          filterCompensation,
+          baselineFraction,
+          minBaselineSamples,
+          filterSettleModes,
+          skipAfterPeakSamples,
+          minFitSamples,
+          minStepMv,
+          minRaMOhm,
+          maxRaMOhm,
+          minRinMOhm,
+          maxRinMOhm,
+          minCmPf,
+          maxCmPf,
+          minDecayTaus,
+          maxResidualToNoise,
+          residualFloorFraction,
+          onOffTolerance,
+          onOffSigmas,
+          minTransientSigmas,
+          maxIterations);
+    }
   }
 
   private static void require(boolean ok, String key, String what) {

@@ -40,6 +40,13 @@ final class TransientFit {
     final double[][] covariance = new double[P][P];
 
     double rssPa2;
+
+    /**
+     * Rms residual over the unpooled rows, where the transient is: a misfit there is not diluted by
+     * a long steady state.
+     */
+    double transientRmsPa;
+
     int samples;
     int iterations;
 
@@ -49,6 +56,15 @@ final class TransientFit {
   }
 
   /**
+   * Rows later than this many closed-form time constants after the fit's start are pooled into one
+   * observation, their mean, weighted by their count. The model's mean over those rows is kept
+   * exact, so this only drops the tail's within-group scatter, which carries no information about
+   * I_ss, A or τ once e^(−t/τ) is below ~5·10⁻⁵ there; it cuts the Levenberg–Marquardt rows (and
+   * Commons Math's per-row overhead) several-fold.
+   */
+  static final double POOL_AFTER_TAUS = 10;
+
+  /**
    * Fits rows {@code from..to} (inclusive) of {@code y}; row {@code ref} is time 0 and rows are
    * {@code dtMs} apart.
    */
@@ -56,24 +72,52 @@ final class TransientFit {
     Result r = new Result();
     int n = to - from + 1;
     r.samples = n;
-    double[] t = new double[n];
-    double[] target = new double[n];
+    double[] tAll = new double[n];
+    double[] yAll = new double[n];
     for (int k = 0; k < n; k++) {
-      t[k] = (from + k - ref) * dtMs;
-      target[k] = y[from + k];
+      tAll[k] = (from + k - ref) * dtMs;
+      yAll[k] = y[from + k];
     }
-    double tau0 = integralGuessTauMs(t, target);
+    double tau0 = integralGuessTauMs(tAll, yAll);
     if (!(tau0 > 0) || !Double.isFinite(tau0)) {
       // No decay visible to the closed form: start from a tenth of the span and let LM decide.
-      tau0 = 0.1 * (t[n - 1] - t[0]);
+      tau0 = 0.1 * (tAll[n - 1] - tAll[0]);
     }
-    double[] start = linearAmplitudes(t, target, tau0);
+    double[] start = linearAmplitudes(tAll, yAll, tau0);
     double tauFloorMs = 1e-3 * dtMs;
+
+    int head = (int) Math.min(n, Math.ceil(POOL_AFTER_TAUS * tau0 / dtMs));
+    int pooled = n - head;
+    if (pooled < 2 || head < 2 * P) {
+      head = n;
+      pooled = 0;
+    }
+    double pooledMean = 0;
+    double pooledScatter = 0;
+    if (pooled > 0) {
+      for (int k = head; k < n; k++) {
+        pooledMean += yAll[k];
+      }
+      pooledMean /= pooled;
+      for (int k = head; k < n; k++) {
+        double d = yAll[k] - pooledMean;
+        pooledScatter += d * d;
+      }
+    }
+    int rows = head + (pooled > 0 ? 1 : 0);
+    double[] target = new double[rows];
+    System.arraycopy(yAll, 0, target, 0, head);
+    double poolWeight = Math.sqrt(pooled);
+    if (pooled > 0) {
+      target[head] = poolWeight * pooledMean;
+    }
+    MonoExponential model =
+        new MonoExponential(tAll, head, pooled > 0 ? tAll[head] : 0, pooled, dtMs, poolWeight);
 
     LeastSquaresProblem problem =
         new LeastSquaresBuilder()
             .start(start)
-            .model(new MonoExponential(t))
+            .model(model)
             .target(target)
             .parameterValidator(new PositiveTau(tauFloorMs))
             .maxEvaluations(4 * maxIterations)
@@ -98,7 +142,8 @@ final class TransientFit {
     r.tauMs = p[TAU];
     r.iterations = opt.getIterations();
     double cost = opt.getCost();
-    r.rssPa2 = cost * cost;
+    r.rssPa2 = cost * cost + pooledScatter;
+    r.transientRmsPa = Math.sqrt(cost * cost / rows);
     RealMatrix cov;
     try {
       cov = opt.getCovariances(1e-14);
@@ -181,12 +226,26 @@ final class TransientFit {
     return new double[] {iss, amp, tauMs};
   }
 
-  /** I_ss + A·e^(−t/τ) and its analytic Jacobian. */
+  /**
+   * I_ss + A·e^(−t/τ) and its analytic Jacobian on the head rows, plus one weighted row for the
+   * mean over the pooled tail (summed by the recurrence e_(k+1) = e_k·e^(−dt/τ), no exp per row).
+   */
   private static final class MonoExponential implements MultivariateJacobianFunction {
     private final double[] t;
+    private final int head;
+    private final double poolStartMs;
+    private final int pooled;
+    private final double dtMs;
+    private final double poolWeight;
 
-    MonoExponential(double[] t) {
+    MonoExponential(
+        double[] t, int head, double poolStartMs, int pooled, double dtMs, double poolWeight) {
       this.t = t;
+      this.head = head;
+      this.poolStartMs = poolStartMs;
+      this.pooled = pooled;
+      this.dtMs = dtMs;
+      this.poolWeight = poolWeight;
     }
 
     @Override
@@ -194,18 +253,38 @@ final class TransientFit {
       double iss = point.getEntry(ISS);
       double amp = point.getEntry(AMP);
       double tau = point.getEntry(TAU);
-      int n = t.length;
-      double[] f = new double[n];
-      double[][] jac = new double[n][P];
+      int rows = head + (pooled > 0 ? 1 : 0);
+      double[] f = new double[rows];
+      double[][] jac = new double[rows][P];
       double invTau = 1 / tau;
       double invTau2 = invTau * invTau;
-      for (int k = 0; k < n; k++) {
+      for (int k = 0; k < head; k++) {
         double e = Math.exp(-t[k] * invTau);
         f[k] = iss + amp * e;
         double[] row = jac[k];
         row[ISS] = 1;
         row[AMP] = e;
         row[TAU] = amp * e * t[k] * invTau2;
+      }
+      if (pooled > 0) {
+        double q = Math.exp(-dtMs * invTau);
+        double e = Math.exp(-poolStartMs * invTau);
+        double tk = poolStartMs;
+        double sumE = 0;
+        double sumTe = 0;
+        for (int k = 0; k < pooled; k++) {
+          sumE += e;
+          sumTe += tk * e;
+          e *= q;
+          tk += dtMs;
+        }
+        double meanE = sumE / pooled;
+        double meanTe = sumTe / pooled;
+        f[head] = poolWeight * (iss + amp * meanE);
+        double[] row = jac[head];
+        row[ISS] = poolWeight;
+        row[AMP] = poolWeight * meanE;
+        row[TAU] = poolWeight * amp * meanTe * invTau2;
       }
       return new Pair<>(new ArrayRealVector(f, false), new Array2DRowRealMatrix(jac, false));
     }

@@ -287,13 +287,16 @@ public final class VoltageClampEstimator implements PulseEstimator {
     }
     double tauMs = r.tauMs;
     double amp = r.amplitudePa;
+    if (!(Math.abs(amp) > options.minTransientSigmas() * Math.sqrt(r.covariance[1][1]))) {
+      return "no capacitive transient above the noise";
+    }
     double ampAtStart = amp * Math.exp(-(start - edge) * dtMs / tauMs);
     double limit =
         options.maxResidualToNoise() * noisePa
             + options.residualFloorFraction() * Math.abs(ampAtStart);
-    if (r.rmsPa() > limit) {
+    if (r.transientRmsPa > limit) {
       return "residual "
-          + fmt(r.rmsPa())
+          + fmt(r.transientRmsPa)
           + " pA far above the baseline noise "
           + fmt(noisePa)
           + " pA";

@@ -16,6 +16,7 @@ import tauwatch.fit.Parameter;
  * @param driftWarningFraction share of the allowed span at which a parameter counts as drifting
  * @param noPulseTimeoutS stream seconds without any pulse before the state is {@code no signal}
  * @param limits the rules per parameter; parameters absent here are not judged
+ * @param drift the change detector's settings
  */
 public record HealthCriteria(
     int baselinePulses,
@@ -23,7 +24,8 @@ public record HealthCriteria(
     double hysteresisPercent,
     double driftWarningFraction,
     double noPulseTimeoutS,
-    Map<Parameter, ParameterLimits> limits) {
+    Map<Parameter, ParameterLimits> limits,
+    DriftDetection drift) {
 
   /** 20 pulses: 10 s at 2 pulses/s, long enough to average noise, short against drift. */
   public static final int DEFAULT_BASELINE_PULSES = 20;
@@ -55,6 +57,37 @@ public record HealthCriteria(
     EnumMap<Parameter, ParameterLimits> copy = new EnumMap<>(Parameter.class);
     copy.putAll(limits);
     limits = java.util.Collections.unmodifiableMap(copy);
+    java.util.Objects.requireNonNull(drift, "drift");
+  }
+
+  /** Criteria with the default change detector. */
+  public HealthCriteria(
+      int baselinePulses,
+      int debouncePulses,
+      double hysteresisPercent,
+      double driftWarningFraction,
+      double noPulseTimeoutS,
+      Map<Parameter, ParameterLimits> limits) {
+    this(
+        baselinePulses,
+        debouncePulses,
+        hysteresisPercent,
+        driftWarningFraction,
+        noPulseTimeoutS,
+        limits,
+        DriftDetection.defaults());
+  }
+
+  /** The same criteria with other change-detector settings. */
+  public HealthCriteria withDrift(DriftDetection d) {
+    return new HealthCriteria(
+        baselinePulses,
+        debouncePulses,
+        hysteresisPercent,
+        driftWarningFraction,
+        noPulseTimeoutS,
+        limits,
+        d);
   }
 
   /**

@@ -70,6 +70,10 @@ public final class HealthMonitor {
     if (baselineRequested.getAndSet(false)) {
       baseline.setNow();
       completed = true;
+      // A new reference chosen by the user: every detector measures its level afresh.
+      for (Parameter p : judged) {
+        judges.get(p).detector().restart();
+      }
     }
     if (completed) {
       events.onEvent(clock.event(t, EventKind.BASELINE_SET, baselineText()));
@@ -83,7 +87,7 @@ public final class HealthMonitor {
       ParameterJudge j = judges.get(p);
       HealthState before = j.state();
       double b = baseline.isSet() ? baseline.value(p) : Double.NaN;
-      if (j.judge(v, b)) {
+      if (j.judge(e.pulseNumber(), t, v, e.standardError(p), b)) {
         onStateChange(p, before, j.state(), v, b, t);
       }
     }
@@ -159,7 +163,20 @@ public final class HealthMonitor {
 
   private void onStateChange(
       Parameter p, HealthState from, HealthState to, double v, double b, double t) {
-    String rule = judges.get(p).ruleText(v, b);
+    ParameterJudge judge = judges.get(p);
+    String rule = judge.ruleText(v, b);
+    ChangeDetector d = judge.detector();
+    if (to == HealthState.DRIFTING && d.flagged() != ChangeDetector.NONE) {
+      // Name when the change began, not only when it was noticed.
+      String change =
+          String.format(
+              "%s since pulse #%d, t = %.1f s, noticed at #%d",
+              d.flagged() == ChangeDetector.UP ? "rising" : "falling",
+              d.changePulse(),
+              d.changeTimeS(),
+              d.noticedPulse());
+      rule = rule.isEmpty() ? change : change + "; " + rule;
+    }
     String value = String.format("%s %.4g %s", p.symbol(), v, p.unit());
     events.onEvent(
         clock.event(

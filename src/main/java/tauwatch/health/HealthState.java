@@ -4,7 +4,10 @@ package tauwatch.health;
 public enum HealthState {
   /** Within its limits and not moving toward them. */
   STEADY("steady"),
-  /** Moving toward a limit: past the warning share of an allowed change or range. */
+  /**
+   * Moving toward a limit: a sustained change from baseline was detected, or the value is past the
+   * warning share of an allowed change or range.
+   */
   DRIFTING("drifting"),
   /** A limit or the allowed change from baseline was crossed (debounced); raises an alarm. */
   BREACH("breach"),

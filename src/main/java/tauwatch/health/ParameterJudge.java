@@ -9,13 +9,16 @@ package tauwatch.health;
  *
  * <p>Each rule is turned into a "usage": 0 at the baseline, 1 at the limit. The largest usage
  * decides: at or above 1 a breach, at or above the warning fraction drifting. Without a baseline
- * only the absolute range is judged, as plainly inside or outside.
+ * only the absolute range is judged, as plainly inside or outside. Below the limits, a {@link
+ * ChangeDetector} flags a sustained change toward a limit as drifting, at once (the CUSUM already
+ * integrates over pulses, so it gets no extra debounce); leaving drifting is debounced as before.
  */
 final class ParameterJudge {
   private final ParameterLimits limits;
   private final int debounce;
   private final double hysteresis;
   private final double warning;
+  private final ChangeDetector detector;
 
   private HealthState state = HealthState.STEADY;
   private HealthState candidate = HealthState.STEADY;
@@ -34,6 +37,17 @@ final class ParameterJudge {
     this.debounce = criteria.debouncePulses();
     this.hysteresis = criteria.hysteresisPercent() / 100.0;
     this.warning = criteria.driftWarningFraction();
+    boolean changeRule =
+        !Double.isNaN(limits.maxChangePercent()) || !Double.isNaN(limits.maxChangeAbs());
+    this.detector =
+        new ChangeDetector(
+            criteria.drift(),
+            changeRule || !Double.isNaN(limits.max()),
+            changeRule || !Double.isNaN(limits.min()));
+  }
+
+  ChangeDetector detector() {
+    return detector;
   }
 
   HealthState state() {
@@ -49,9 +63,20 @@ final class ParameterJudge {
    *
    * @return true if the state changed
    */
-  boolean judge(double v, double baseline) {
+  boolean judge(long pulse, double timeS, double v, double standardError, double baseline) {
+    detector.update(pulse, timeS, v, standardError, baseline);
     computeUsage(v, baseline);
     HealthState target = targetFor(usage);
+    boolean detected = target == HealthState.STEADY && detector.flagged() != ChangeDetector.NONE;
+    if (detected) {
+      target = HealthState.DRIFTING;
+      if (state == HealthState.STEADY) {
+        state = target;
+        candidate = state;
+        candidateRun = 0;
+        return true;
+      }
+    }
     if (state == HealthState.NO_SIGNAL) {
       // Back from no signal: resume at once, but a breach still needs its debounce.
       state = target == HealthState.BREACH ? HealthState.DRIFTING : target;

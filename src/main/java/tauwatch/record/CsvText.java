@@ -51,4 +51,33 @@ final class CsvText {
     }
     return '"' + s.replace("\"", "\"\"").replace('\n', ' ').replace('\r', ' ') + '"';
   }
+
+  /** Splits one CSV line into cells, honouring double quotes as {@link #text} writes them. */
+  static java.util.List<String> split(String line) {
+    java.util.List<String> out = new java.util.ArrayList<>();
+    StringBuilder cell = new StringBuilder();
+    boolean quoted = false;
+    for (int i = 0; i < line.length(); i++) {
+      char ch = line.charAt(i);
+      if (quoted) {
+        if (ch == '"' && i + 1 < line.length() && line.charAt(i + 1) == '"') {
+          cell.append('"');
+          i++;
+        } else if (ch == '"') {
+          quoted = false;
+        } else {
+          cell.append(ch);
+        }
+      } else if (ch == '"') {
+        quoted = true;
+      } else if (ch == ',') {
+        out.add(cell.toString());
+        cell.setLength(0);
+      } else {
+        cell.append(ch);
+      }
+    }
+    out.add(cell.toString());
+    return out;
+  }
 }

@@ -192,6 +192,59 @@ class VoltageClampEstimatorTest {
     }
     PulseEstimate e = new VoltageClampEstimator().estimate(w);
     assertFalse(e.accepted(), e.toString());
+    System.out.println("synaptic event rejected: " + e.rejectReason());
+  }
+
+  @Test
+  void rejectsAFlatResponseWithNoTransient() {
+    // A step on the command with no current response (an open-circuit headstage, say).
+    AnalyticVcPulse a = cell(10, 500, 30, 50_000);
+    a.noisePa = 2;
+    PulseWindow w = a.window(new Random(9));
+    Random rng = new Random(10);
+    for (int i = 0; i < w.length; i++) {
+      w.response[i] = -20 + 2 * rng.nextGaussian();
+    }
+    PulseEstimate e = new VoltageClampEstimator().estimate(w);
+    assertFalse(e.accepted(), e.toString());
+    System.out.println("flat response rejected: " + e.rejectReason());
+  }
+
+  @Test
+  void rejectsWhenTheOffTransientDisagreesWithTheOnTransient() {
+    // The off-transient's capacitive part scaled by 1.4 (as if Ra changed within the pulse): each
+    // fit is a clean exponential, so only the on/off comparison can catch it.
+    AnalyticVcPulse a = cell(10, 500, 30, 50_000);
+    a.noisePa = 1;
+    PulseWindow w = a.window(new Random(4));
+    AnalyticVcPulse clean = cell(10, 500, 30, 50_000);
+    PulseWindow c = clean.window();
+    double iss = c.response[w.onsetIndex - 1];
+    for (int i = w.offsetIndex + 1; i < w.length; i++) {
+      w.response[i] += 0.4 * (c.response[i] - iss);
+    }
+    PulseEstimate e = new VoltageClampEstimator().estimate(w);
+    assertFalse(e.accepted(), e.toString());
+    assertTrue(e.rejectReason().contains("disagree"), e.rejectReason());
+  }
+
+  @Test
+  void rejectsATwoCompartmentTransientByItsResidual() {
+    // A slow second exponential (a dendrite charging through its axial resistance, Rall's cable
+    // theory, CHECKS.md) of 40 pA, τ 3 ms, on a 1 pA-noise trace: not mono-exponential.
+    AnalyticVcPulse a = cell(10, 500, 30, 50_000);
+    a.stepMs = 20;
+    a.afterMs = 20;
+    a.noisePa = 1;
+    PulseWindow w = a.window(new Random(6));
+    for (int i = w.onsetIndex + 1; i < w.length; i++) {
+      double t = w.timeFromOnsetS(i);
+      double tOff = t - w.stepSamples() * w.sampleIntervalS;
+      w.response[i] -= 40 * (Math.exp(-t / 3e-3) - (tOff > 0 ? Math.exp(-tOff / 3e-3) : 0));
+    }
+    PulseEstimate e = new VoltageClampEstimator().estimate(w);
+    assertFalse(e.accepted(), e.toString());
+    System.out.println("two-compartment transient rejected: " + e.rejectReason());
   }
 
   @Test
@@ -218,6 +271,7 @@ class VoltageClampEstimatorTest {
             0.01,
             0.10,
             4,
+            5,
             50);
     PulseEstimate e = new VoltageClampEstimator(strict).estimate(a.window());
     assertFalse(e.accepted());
@@ -250,6 +304,7 @@ class VoltageClampEstimatorTest {
                     0.01,
                     0.10,
                     4,
+                    5,
                     50));
     assertTrue(x.getMessage().contains("baselineFraction"), x.getMessage());
   }
