@@ -251,28 +251,7 @@ class VoltageClampEstimatorTest {
   void rejectsImplausibleAccessResistance() {
     AnalyticVcPulse a = cell(10, 500, 30, 50_000);
     EstimatorOptions strict =
-        new EstimatorOptions(
-            0,
-            FilterCompensation.BESSEL_GAIN,
-            0.8,
-            5,
-            6,
-            0,
-            8,
-            0.5,
-            0.5,
-            8,
-            5,
-            100_000,
-            0.5,
-            1000,
-            5,
-            3,
-            0.01,
-            0.10,
-            4,
-            5,
-            50);
+        EstimatorOptions.defaults().toBuilder().maxRaMOhm(8).residualFloorFraction(0.01).build();
     PulseEstimate e = new VoltageClampEstimator(strict).estimate(a.window());
     assertFalse(e.accepted());
     assertTrue(e.rejectReason().startsWith("Ra"), e.rejectReason());
@@ -284,28 +263,10 @@ class VoltageClampEstimatorTest {
         org.junit.jupiter.api.Assertions.assertThrows(
             IllegalArgumentException.class,
             () ->
-                new EstimatorOptions(
-                    0,
-                    FilterCompensation.NONE,
-                    1.5,
-                    5,
-                    6,
-                    0,
-                    8,
-                    0.5,
-                    0.5,
-                    200,
-                    5,
-                    100_000,
-                    0.5,
-                    1000,
-                    5,
-                    3,
-                    0.01,
-                    0.10,
-                    4,
-                    5,
-                    50));
+                EstimatorOptions.defaults().toBuilder()
+                    .filterCompensation(FilterCompensation.NONE)
+                    .baselineFraction(1.5)
+                    .build());
     assertTrue(x.getMessage().contains("baselineFraction"), x.getMessage());
   }
 
