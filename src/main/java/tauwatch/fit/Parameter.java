@@ -16,8 +16,10 @@ public enum Parameter {
   RESTING_POTENTIAL("vrest", "Vrest", "mV", "resting potential"),
   FAST_TIME_CONSTANT("tau_fast", "tau1", "ms", "fast time constant of a two-exponential transient"),
   SLOW_TIME_CONSTANT("tau_slow", "tau2", "ms", "slow time constant of a two-exponential transient"),
-  FAST_AMPLITUDE("amp_fast", "A1", "pA", "onset amplitude of the fast component"),
-  SLOW_AMPLITUDE("amp_slow", "A2", "pA", "onset amplitude of the slow component");
+  FAST_AMPLITUDE(
+      "amp_fast", "A1", "pA", "onset amplitude of the fast component, per the step's sign"),
+  SLOW_AMPLITUDE(
+      "amp_slow", "A2", "pA", "onset amplitude of the slow component, per the step's sign");
 
   private final String key;
   private final String symbol;

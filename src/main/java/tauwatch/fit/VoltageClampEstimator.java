@@ -466,9 +466,18 @@ public final class VoltageClampEstimator implements PulseEstimator {
 
   /**
    * (Ra, Rt, τ, Cm, τ₁, τ₂, A₁, A₂) from u = (I_ss, A₁, τ₁, A₂, τ₂, I_ref) of a two-exponential
-   * transient: onset amplitudes carried back through the filter, I₀ = ΣA_k·g_k + ΔI_ss, the charge
-   * Q = ΣA_k·g_k·τ_k (a linear filter preserves the area of what passes it), τ = Q/ΣA_k·g_k (the
-   * area over the initial amplitude) and Cm = Q/ΔV·(Rt/Rin)² (CHECKS.md).
+   * transient. Onset amplitudes are carried back through the filter; I₀ = ΣA_k·g_k + ΔI_ss gives
+   * Ra, ΔI_ss gives Rt, and τ = ΣA_k·g_k·τ_k / ΣA_k·g_k is the transient's area over its initial
+   * amplitude.
+   *
+   * <p>The charged capacitance: the fitted transient is the step response of the cell's admittance
+   * Y(s) = 1/Rt + Σ a_k·s/(s + 1/τ_k), a_k = A_k·g_k/ΔV. When the membrane has one time constant
+   * τ_m everywhere (uniform specific membrane resistance, as in Rall's model), every membrane
+   * admittance is C·(s + 1/τ_m), so the cell's impedance has a pole, and Y a zero, at s = −1/τ_m
+   * however the dendrite is wired; Y's zero nearest the origin gives τ_m. At steady state every
+   * compartment's leak current is C_k·ΔV_k/τ_m, so the stored charge is I_∞·τ_m and the charged
+   * capacitance Σ C_k·ΔV_k / ΔV_soma = τ_m/Rin. For one compartment this reduces to τ·Rt/(Ra·Rin),
+   * the one-exponential formula (derived here from the circuit; CHECKS.md's definitions).
    */
   private double[] biDerived(double[] u, double stepMv) {
     double g1 = filterGain(options, filter, u[2])[0];
@@ -479,11 +488,25 @@ public final class VoltageClampEstimator implements PulseEstimator {
     double dI0 = a1 + a2 + dIss;
     double ra = MOHM_PER_MV_PER_PA * stepMv / dI0;
     double rt = MOHM_PER_MV_PER_PA * stepMv / dIss;
-    double q = a1 * u[2] + a2 * u[4];
-    double tau = q / (a1 + a2);
-    double ratio = rt / (rt - ra);
-    double cm = q / stepMv * ratio * ratio;
-    return new double[] {ra, rt, tau, cm, u[2], u[4], a1, a2};
+    double tau = (a1 * u[2] + a2 * u[4]) / (a1 + a2);
+    double rin = rt - ra;
+    // Zeros of Y(s)(s + λ₁)(s + λ₂) = G(s + λ₁)(s + λ₂) + a₁s(s + λ₂) + a₂s(s + λ₁), per mV.
+    double gInf = dIss / stepMv;
+    double c1 = a1 / stepMv;
+    double c2 = a2 / stepMv;
+    double l1 = 1 / u[2];
+    double l2 = 1 / u[4];
+    double qa = gInf + c1 + c2;
+    double qb = gInf * (l1 + l2) + c1 * l2 + c2 * l1;
+    double qc = gInf * l1 * l2;
+    double disc = Math.sqrt(Math.max(0, qb * qb - 4 * qa * qc));
+    // The root nearest zero, written to avoid cancellation: 2c/(−b − √Δ).
+    double zero = 2 * qc / (-qb - disc);
+    double tauM = -1 / zero;
+    double cm = 1000 * tauM / rin; // ms/MΩ = nF
+    // Amplitudes signed by the step, so the on- and off-transients agree.
+    double sign = Math.signum(stepMv);
+    return new double[] {ra, rt, tau, cm, u[2], u[4], sign * a1, sign * a2};
   }
 
   private static String excursionText(double sd) {
