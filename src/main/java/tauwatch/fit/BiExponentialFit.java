@@ -148,9 +148,13 @@ final class BiExponentialFit {
   static double linear(double[] t, double[] v, double t1, double t2, double[] out) {
     int n = t.length;
     double s1 = 0, s2 = 0, s11 = 0, s22 = 0, s12 = 0, sy = 0, sy1 = 0, sy2 = 0, syy = 0;
-    for (int k = 0; k < n; k++) {
-      double e1 = Math.exp(-t[k] / t1);
-      double e2 = Math.exp(-t[k] / t2);
+    // Rows are evenly spaced: e^(−t/τ) by recurrence, one exp per series.
+    double dt = n > 1 ? t[1] - t[0] : 0;
+    double q1 = Math.exp(-dt / t1);
+    double q2 = Math.exp(-dt / t2);
+    double e1 = Math.exp(-t[0] / t1);
+    double e2 = Math.exp(-t[0] / t2);
+    for (int k = 0; k < n; k++, e1 *= q1, e2 *= q2) {
       s1 += e1;
       s2 += e2;
       s11 += e1 * e1;

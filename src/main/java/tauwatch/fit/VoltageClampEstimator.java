@@ -332,9 +332,9 @@ public final class VoltageClampEstimator implements PulseEstimator {
       return "no capacitive transient above the noise";
     }
     BiExponentialFit.Result bi = null;
-    if (model == null) {
+    if (model == null && monoShowsStructure(w, start, last, edge, dtMs, r, noise, window)) {
       bi = chooseTwoExponentials(w.response, start, last, edge, dtMs, r, inflation);
-    } else if (model.bi) {
+    } else if (model != null && model.bi) {
       bi =
           BiExponentialFit.fit(
               w.response, start, last, edge, dtMs, options.maxIterations(), r.tauMs);
@@ -414,6 +414,45 @@ public final class VoltageClampEstimator implements PulseEstimator {
     s.samples = bi.samples;
     return null;
   }
+
+  /**
+   * Whether the one-exponential residual has structure worth a second exponential: its running
+   * average strays beyond {@link #PRESCREEN_SIGMAS} standard deviations (past the model-error
+   * allowance), or its rms exceeds the baseline noise by a tenth. Only then is the two-exponential
+   * model fitted and put to the F-test, which keeps a compact cell's pulse at one fit per side.
+   */
+  private boolean monoShowsStructure(
+      PulseWindow w,
+      int start,
+      int last,
+      int edge,
+      double dtMs,
+      TransientFit.Result r,
+      BaselineNoise noise,
+      int window) {
+    double ampAtStart = r.amplitudePa * Math.exp(-(start - edge) * dtMs / r.tauMs);
+    double floor = options.residualFloorFraction() * Math.abs(ampAtStart);
+    if (r.transientRmsPa > 1.1 * noise.sd() + floor) {
+      return true;
+    }
+    double sd =
+        ResidualExcursion.sigmas(
+            w.response,
+            start,
+            last,
+            edge,
+            dtMs,
+            r.steadyPa,
+            new double[] {r.amplitudePa},
+            new double[] {r.tauMs},
+            noise,
+            window,
+            CurrentClampEstimator.EXCURSION_FLOOR_FACTOR * floor);
+    return sd > PRESCREEN_SIGMAS;
+  }
+
+  /** See {@link #monoShowsStructure}. */
+  static final double PRESCREEN_SIGMAS = 3;
 
   /**
    * The two-exponential fit when it explains the transient significantly better, else null.

@@ -16,6 +16,9 @@ import tauwatch.fit.Parameter;
  * @param driftWarningFraction share of the allowed span at which a parameter counts as drifting
  * @param noPulseTimeoutS stream seconds without any pulse before the state is {@code no signal}
  * @param limits the rules per parameter; parameters absent here are not judged
+ * @param averagePulses accepted pulses in the uncertainty-weighted running average
+ * @param changeSigmas a change from the baseline smaller than this many standard errors of the
+ *     running average is not a drift (the relative and absolute change rules stay quiet)
  */
 public record HealthCriteria(
     int baselinePulses,
@@ -23,7 +26,34 @@ public record HealthCriteria(
     double hysteresisPercent,
     double driftWarningFraction,
     double noPulseTimeoutS,
-    Map<Parameter, ParameterLimits> limits) {
+    Map<Parameter, ParameterLimits> limits,
+    int averagePulses,
+    double changeSigmas) {
+
+  /** 10 pulses: 5 s at 2 pulses/s, a tenth of the noise of one pulse's estimate at most. */
+  public static final int DEFAULT_AVERAGE_PULSES = 10;
+
+  /** 2 standard errors: a two-sided 95 % band (common practice). */
+  public static final double DEFAULT_CHANGE_SIGMAS = 2;
+
+  /** Criteria with the default running average. */
+  public HealthCriteria(
+      int baselinePulses,
+      int debouncePulses,
+      double hysteresisPercent,
+      double driftWarningFraction,
+      double noPulseTimeoutS,
+      Map<Parameter, ParameterLimits> limits) {
+    this(
+        baselinePulses,
+        debouncePulses,
+        hysteresisPercent,
+        driftWarningFraction,
+        noPulseTimeoutS,
+        limits,
+        DEFAULT_AVERAGE_PULSES,
+        DEFAULT_CHANGE_SIGMAS);
+  }
 
   /** 20 pulses: 10 s at 2 pulses/s, long enough to average noise, short against drift. */
   public static final int DEFAULT_BASELINE_PULSES = 20;
@@ -51,6 +81,12 @@ public record HealthCriteria(
     if (!(noPulseTimeoutS > 0)) {
       throw new IllegalArgumentException(
           "no_pulse_timeout_s must be positive, got " + noPulseTimeoutS);
+    }
+    if (averagePulses < 1) {
+      throw new IllegalArgumentException("average_pulses must be >= 1, got " + averagePulses);
+    }
+    if (!(changeSigmas >= 0) || Double.isInfinite(changeSigmas)) {
+      throw new IllegalArgumentException("change_sigmas must be >= 0, got " + changeSigmas);
     }
     EnumMap<Parameter, ParameterLimits> copy = new EnumMap<>(Parameter.class);
     copy.putAll(limits);

@@ -50,7 +50,18 @@ final class ParameterJudge {
    * @return true if the state changed
    */
   boolean judge(double v, double baseline) {
-    computeUsage(v, baseline);
+    return judge(v, baseline, true);
+  }
+
+  /**
+   * Judges a new accepted value; with {@code changeSignificant} false (the running average's change
+   * from the baseline is within its uncertainty) the relative and absolute change rules do not
+   * count, so only the absolute limits can move the state.
+   *
+   * @return true if the state changed
+   */
+  boolean judge(double v, double baseline, boolean changeSignificant) {
+    computeUsage(v, baseline, changeSignificant);
     HealthState target = targetFor(usage);
     if (state == HealthState.NO_SIGNAL) {
       // Back from no signal: resume at once, but a breach still needs its debounce.
@@ -103,7 +114,7 @@ final class ParameterJudge {
     return HealthState.STEADY;
   }
 
-  private void computeUsage(double v, double b) {
+  private void computeUsage(double v, double b, boolean changeSignificant) {
     usage = 0;
     usageRule = RULE_NONE;
     boolean hasBaseline = !Double.isNaN(b);
@@ -125,10 +136,10 @@ final class ParameterJudge {
       }
       take(u, RULE_MIN);
     }
-    if (hasBaseline && !Double.isNaN(limits.maxChangePercent()) && b != 0) {
+    if (changeSignificant && hasBaseline && !Double.isNaN(limits.maxChangePercent()) && b != 0) {
       take(Math.abs(v - b) / (limits.maxChangePercent() / 100.0 * Math.abs(b)), RULE_PERCENT);
     }
-    if (hasBaseline && !Double.isNaN(limits.maxChangeAbs())) {
+    if (changeSignificant && hasBaseline && !Double.isNaN(limits.maxChangeAbs())) {
       take(Math.abs(v - b) / limits.maxChangeAbs(), RULE_ABS);
     }
   }
