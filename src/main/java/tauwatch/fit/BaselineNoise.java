@@ -54,6 +54,17 @@ record BaselineNoise(double mean, double sd, int samples, double varianceInflati
     return new BaselineNoise(mean, Math.sqrt(var), n, inflation);
   }
 
+  /**
+   * The same statistics with the inflation raised to at least {@code modelInflation} (the known
+   * output filter's, {@link BesselFilterModel#noiseVarianceInflation}): a short baseline's sample
+   * autocorrelations are biased low (with the mean removed they sum to −½ over all lags).
+   */
+  BaselineNoise atLeast(double modelInflation) {
+    return modelInflation > varianceInflation
+        ? new BaselineNoise(mean, sd, samples, modelInflation)
+        : this;
+  }
+
   /** Standard error of the mean, allowing for the correlation. */
   double meanStandardError() {
     return sd * Math.sqrt(varianceInflation / samples);

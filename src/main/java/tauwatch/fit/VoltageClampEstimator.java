@@ -93,7 +93,16 @@ public final class VoltageClampEstimator implements PulseEstimator {
         Math.min(
             nPre,
             Math.max(options.minBaselineSamples(), (int) (options.baselineFraction() * nPre)));
-    BaselineNoise noise = BaselineNoise.of(w.response, nPre - nb, onset);
+    double cutoffHz =
+        options.filterCutoffHz() > 0
+            ? options.filterCutoffHz()
+            : options.filterCutoffHz() < 0 ? 0 : Math.max(0, w.filterCutoffHz);
+    if (filter.cutoffHz() != cutoffHz) {
+      filter = new BesselFilterModel(cutoffHz);
+    }
+    BaselineNoise noise =
+        BaselineNoise.of(w.response, nPre - nb, onset)
+            .atLeast(filter.noiseVarianceInflation(w.sampleIntervalS));
     double holdPa = noise.mean();
     double holdSe = noise.meanStandardError();
     double holdVar = holdSe * holdSe;
@@ -103,14 +112,6 @@ public final class VoltageClampEstimator implements PulseEstimator {
             w.response, nPre - nb, onset, onset, dtMs, holdPa, NONE, NONE, noise, window, 0);
     if (baseExcursion > options.maxExcursionSigmas()) {
       return "baseline carries an event (" + fmt(baseExcursion) + " sd)";
-    }
-
-    double cutoffHz =
-        options.filterCutoffHz() > 0
-            ? options.filterCutoffHz()
-            : options.filterCutoffHz() < 0 ? 0 : Math.max(0, w.filterCutoffHz);
-    if (filter.cutoffHz() != cutoffHz) {
-      filter = new BesselFilterModel(cutoffHz);
     }
 
     Side on = new Side();
