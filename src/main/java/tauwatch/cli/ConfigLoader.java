@@ -229,7 +229,9 @@ public final class ConfigLoader {
                       r.number("health.drift_warning_fraction"),
                       r.number("health.no_pulse_timeout_s"),
                       limits,
-                      drift));
+                      drift,
+                      r.integer("health.average_pulses"),
+                      r.number("health.change_sigmas")));
       @SuppressWarnings("unchecked")
       Map<String, Object> asLoaded = TOML.convertValue(c, Map.class);
       return new MonitorConfig(seg, edgePa, filterHz, estimator, health, asLoaded);
@@ -272,6 +274,10 @@ public final class ConfigLoader {
                 .minCmPf(r.number("estimator.min_cm_pf"))
                 .maxCmPf(r.number("estimator.max_cm_pf"))
                 .maxResidualToNoise(r.number("estimator.max_residual_to_noise"))
+                .modelSelectionAlpha(r.number("estimator.model_selection_alpha"))
+                .maxExcursionSigmas(r.number("estimator.max_excursion_sigmas"))
+                .excursionWindowMs(r.number("estimator.excursion_window_ms"))
+                .bridgeBalancedMOhm(r.number("estimator.bridge_balanced_mohm"))
                 .build());
   }
 

@@ -34,6 +34,15 @@ package tauwatch.fit;
  * @param minTransientSigmas the fitted transient amplitude must exceed this many of its standard
  *     errors (otherwise there is no capacitive transient to read)
  * @param maxIterations iteration limit of the Levenberg–Marquardt fit
+ * @param minStepPa current clamp: smallest |step| accepted, pA
+ * @param bridgeBalancedMOhm current clamp: an I·Ra jump worth less than this (and within 3 standard
+ *     errors of zero) means the bridge is balanced, and Ra is not reported
+ * @param modelSelectionAlpha the two-exponential model replaces the one-exponential model when the
+ *     F-test of their residuals rejects the simpler one at this significance level
+ * @param maxExcursionSigmas a pulse whose residual, averaged over {@code excursionWindowMs}, strays
+ *     further than this many standard deviations of that average (from the baseline noise) carries
+ *     something else (a synaptic event, a spike, hum, an artefact) and is rejected
+ * @param excursionWindowMs the running-average width of the residual-excursion test, ms
  */
 public record EstimatorOptions(
     double filterCutoffHz,
@@ -56,7 +65,12 @@ public record EstimatorOptions(
     double onOffTolerance,
     double onOffSigmas,
     double minTransientSigmas,
-    int maxIterations) {
+    int maxIterations,
+    double minStepPa,
+    double bridgeBalancedMOhm,
+    double modelSelectionAlpha,
+    double maxExcursionSigmas,
+    double excursionWindowMs) {
 
   public EstimatorOptions {
     require(Double.isFinite(filterCutoffHz), "filterCutoffHz", "must be a number");
@@ -78,6 +92,14 @@ public record EstimatorOptions(
     require(onOffSigmas > 0, "onOffSigmas", "must be positive");
     require(minTransientSigmas >= 0, "minTransientSigmas", "must not be negative");
     require(maxIterations >= 5, "maxIterations", "must be at least 5");
+    require(minStepPa > 0, "minStepPa", "must be positive");
+    require(bridgeBalancedMOhm >= 0, "bridgeBalancedMOhm", "must not be negative");
+    require(
+        modelSelectionAlpha > 0 && modelSelectionAlpha < 0.5,
+        "modelSelectionAlpha",
+        "must be in (0, 0.5)");
+    require(maxExcursionSigmas > 1, "maxExcursionSigmas", "must be above 1");
+    require(excursionWindowMs > 0, "excursionWindowMs", "must be positive");
   }
 
   /**
@@ -107,7 +129,12 @@ public record EstimatorOptions(
         0.10,
         4,
         5,
-        50);
+        50,
+        5.0,
+        1.0,
+        1e-3,
+        6.0,
+        0.5);
   }
 
   /** A copy with another filter cutoff (0 = the window's). */
@@ -148,6 +175,11 @@ public record EstimatorOptions(
     private double onOffSigmas;
     private double minTransientSigmas;
     private int maxIterations;
+    private double minStepPa;
+    private double bridgeBalancedMOhm;
+    private double modelSelectionAlpha;
+    private double maxExcursionSigmas;
+    private double excursionWindowMs;
 
     private Builder(EstimatorOptions o) {
       filterCutoffHz = o.filterCutoffHz;
@@ -171,6 +203,11 @@ public record EstimatorOptions(
       onOffSigmas = o.onOffSigmas;
       minTransientSigmas = o.minTransientSigmas;
       maxIterations = o.maxIterations;
+      minStepPa = o.minStepPa;
+      bridgeBalancedMOhm = o.bridgeBalancedMOhm;
+      modelSelectionAlpha = o.modelSelectionAlpha;
+      maxExcursionSigmas = o.maxExcursionSigmas;
+      excursionWindowMs = o.excursionWindowMs;
     }
 
     public Builder filterCutoffHz(double v) {
@@ -278,6 +315,31 @@ public record EstimatorOptions(
       return this;
     }
 
+    public Builder minStepPa(double v) {
+      minStepPa = v;
+      return this;
+    }
+
+    public Builder bridgeBalancedMOhm(double v) {
+      bridgeBalancedMOhm = v;
+      return this;
+    }
+
+    public Builder modelSelectionAlpha(double v) {
+      modelSelectionAlpha = v;
+      return this;
+    }
+
+    public Builder maxExcursionSigmas(double v) {
+      maxExcursionSigmas = v;
+      return this;
+    }
+
+    public Builder excursionWindowMs(double v) {
+      excursionWindowMs = v;
+      return this;
+    }
+
     public EstimatorOptions build() {
       return new EstimatorOptions(
           filterCutoffHz,
@@ -300,7 +362,12 @@ public record EstimatorOptions(
           onOffTolerance,
           onOffSigmas,
           minTransientSigmas,
-          maxIterations);
+          maxIterations,
+          minStepPa,
+          bridgeBalancedMOhm,
+          modelSelectionAlpha,
+          maxExcursionSigmas,
+          excursionWindowMs);
     }
   }
 

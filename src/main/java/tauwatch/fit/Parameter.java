@@ -13,7 +13,13 @@ public enum Parameter {
   CHARGE_CAPACITANCE("cmq", "Cm(Q)", "pF", "membrane capacitance from charge"),
   TIME_CONSTANT("tau", "tau", "ms", "time constant"),
   HOLDING_CURRENT("hold", "Ihold", "pA", "holding current"),
-  RESTING_POTENTIAL("vrest", "Vrest", "mV", "resting potential");
+  RESTING_POTENTIAL("vrest", "Vrest", "mV", "resting potential"),
+  FAST_TIME_CONSTANT("tau_fast", "tau1", "ms", "fast time constant of a two-exponential transient"),
+  SLOW_TIME_CONSTANT("tau_slow", "tau2", "ms", "slow time constant of a two-exponential transient"),
+  FAST_AMPLITUDE(
+      "amp_fast", "A1", "pA", "onset amplitude of the fast component, per the step's sign"),
+  SLOW_AMPLITUDE(
+      "amp_slow", "A2", "pA", "onset amplitude of the slow component, per the step's sign");
 
   private final String key;
   private final String symbol;

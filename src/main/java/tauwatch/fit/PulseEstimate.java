@@ -25,6 +25,7 @@ public final class PulseEstimate {
   private final long sweepNumber;
   private final double sweepTimeS;
   private final long pulseEndReceivedNanos;
+  private final String note;
 
   private PulseEstimate(Builder b, String rejectReason) {
     this.pulseNumber = b.pulseNumber;
@@ -39,6 +40,7 @@ public final class PulseEstimate {
     this.sweepNumber = b.sweepNumber;
     this.sweepTimeS = b.sweepTimeS;
     this.pulseEndReceivedNanos = b.pulseEndReceivedNanos;
+    this.note = b.note;
   }
 
   public static Builder builder() {
@@ -64,6 +66,7 @@ public final class PulseEstimate {
     b.sweepNumber = sweepNumber;
     b.sweepTimeS = sweepTimeS;
     b.pulseEndReceivedNanos = pulseEndReceivedNanos;
+    b.note = note;
     return b;
   }
 
@@ -129,6 +132,14 @@ public final class PulseEstimate {
     return pulseEndReceivedNanos;
   }
 
+  /**
+   * A remark on how a value was read that is not a rejection (e.g. "bridge balanced: Ra not
+   * measured"), or the empty string.
+   */
+  public String note() {
+    return note;
+  }
+
   @Override
   public String toString() {
     StringBuilder sb = new StringBuilder("PulseEstimate[#").append(pulseNumber);
@@ -156,6 +167,7 @@ public final class PulseEstimate {
     private long sweepNumber = -1;
     private double sweepTimeS = Double.NaN;
     private long pulseEndReceivedNanos;
+    private String note = "";
 
     private Builder() {
       Arrays.fill(values, Double.NaN);
@@ -219,6 +231,12 @@ public final class PulseEstimate {
 
     public Builder pulseEndReceivedNanos(long nanos) {
       pulseEndReceivedNanos = nanos;
+      return this;
+    }
+
+    /** Adds a remark (see {@link PulseEstimate#note()}); remarks are joined by "; ". */
+    public Builder note(String text) {
+      note = note.isEmpty() ? text : note + "; " + text;
       return this;
     }
 

@@ -1,5 +1,6 @@
 package tauwatch.fit;
 
+import org.apache.commons.math3.distribution.FDistribution;
 import tauwatch.pulse.PulseWindow;
 import tauwatch.stream.ClampMode;
 
@@ -83,6 +84,7 @@ public final class VoltageClampEstimator implements PulseEstimator {
       }
     }
     double dtMs = w.sampleIntervalS * 1e3;
+    int window = Math.max(1, (int) Math.round(options.excursionWindowMs() / dtMs));
 
     // Baseline: the latest rows up to and including the onset row, which is still sampled before
     // the step acts (interchange timing contract).
@@ -91,20 +93,6 @@ public final class VoltageClampEstimator implements PulseEstimator {
         Math.min(
             nPre,
             Math.max(options.minBaselineSamples(), (int) (options.baselineFraction() * nPre)));
-    double sum = 0;
-    for (int i = nPre - nb; i <= onset; i++) {
-      sum += w.response[i];
-    }
-    double holdPa = sum / nb;
-    double ss = 0;
-    for (int i = nPre - nb; i <= onset; i++) {
-      double d = w.response[i] - holdPa;
-      ss += d * d;
-    }
-    double noisePa = Math.sqrt(ss / (nb - 1));
-    double holdVar = noisePa * noisePa / nb;
-    b.value(Parameter.HOLDING_CURRENT, holdPa, Math.sqrt(holdVar));
-
     double cutoffHz =
         options.filterCutoffHz() > 0
             ? options.filterCutoffHz()
@@ -112,63 +100,64 @@ public final class VoltageClampEstimator implements PulseEstimator {
     if (filter.cutoffHz() != cutoffHz) {
       filter = new BesselFilterModel(cutoffHz);
     }
+    BaselineNoise noise =
+        BaselineNoise.of(w.response, nPre - nb, onset)
+            .atLeast(filter.noiseVarianceInflation(w.sampleIntervalS));
+    double holdPa = noise.mean();
+    double holdSe = noise.meanStandardError();
+    double holdVar = holdSe * holdSe;
+    b.value(Parameter.HOLDING_CURRENT, holdPa, holdSe);
+    double baseExcursion =
+        ResidualExcursion.sigmas(
+            w.response, nPre - nb, onset, onset, dtMs, holdPa, NONE, NONE, noise, window, 0);
+    if (baseExcursion > options.maxExcursionSigmas()) {
+      return "baseline carries an event (" + fmt(baseExcursion) + " sd)";
+    }
 
     Side on = new Side();
-    String why = fitSide(w, onset, offset, holdPa, holdVar, stepMv, noisePa, dtMs, on);
+    String why = fitSide(w, onset, offset, holdPa, holdVar, stepMv, noise, dtMs, window, null, on);
     if (why != null) {
       return "on-transient: " + why;
     }
-    if (on.tauMs * options.minDecayTaus() > (offset - onset) * dtMs) {
-      return "transient not decayed within the step (tau " + fmt(on.tauMs) + " ms)";
+    if (on.slowestTauMs * options.minDecayTaus() > (offset - onset) * dtMs) {
+      return "transient not decayed within the step (tau " + fmt(on.slowestTauMs) + " ms)";
     }
 
     Side off = null;
     int offStart = startRow(w, offset, end);
     boolean offLongEnough =
         end - offStart + 1 >= options.minFitSamples()
-            && (end - offset) * dtMs >= options.minDecayTaus() * on.tauMs;
+            && (end - offset) * dtMs >= options.minDecayTaus() * on.slowestTauMs;
     if (offLongEnough) {
       off = new Side();
-      double refVar = on.fit.covariance[0][0];
-      why = fitSide(w, offset, end, on.steadyPa, refVar, -stepMv, noisePa, dtMs, off);
+      why =
+          fitSide(w, offset, end, on.steadyPa, on.steadyVar, -stepMv, noise, dtMs, window, on, off);
       if (why != null) {
         return "off-transient: " + why;
       }
     }
 
-    // Combine (Ra, Rt, τ) by inverse-variance weights; a fixed-weight linear combination of two
-    // independent estimates has covariance W·C_on·W + (I − W)·C_off·(I − W).
-    double[] x = new double[3];
-    double[][] c = new double[3][3];
+    int k = on.x.length;
+    double[] x = new double[k];
+    double[][] c = new double[k][k];
     if (off == null) {
-      System.arraycopy(on.x, 0, x, 0, 3);
-      for (int i = 0; i < 3; i++) {
-        System.arraycopy(on.cx[i], 0, c[i], 0, 3);
+      System.arraycopy(on.x, 0, x, 0, k);
+      for (int i = 0; i < k; i++) {
+        System.arraycopy(on.cx[i], 0, c[i], 0, k);
       }
     } else {
-      double[] wt = new double[3];
-      for (int i = 0; i < 3; i++) {
-        double floor = 1e-18 * on.x[i] * on.x[i];
-        double vOn = Math.max(on.cx[i][i], floor);
-        double vOff = Math.max(off.cx[i][i], floor);
-        wt[i] = vOff / (vOn + vOff);
-        x[i] = wt[i] * on.x[i] + (1 - wt[i]) * off.x[i];
-        double diff = Math.abs(on.x[i] - off.x[i]);
-        if (diff > options.onOffTolerance() * Math.abs(x[i])
-            && diff > options.onOffSigmas() * Math.sqrt(vOn + vOff)) {
-          return "on/off transients disagree on "
-              + SIDE_NAMES[i]
-              + " ("
-              + fmt(on.x[i])
-              + " vs "
-              + fmt(off.x[i])
-              + ")";
-        }
-      }
-      for (int i = 0; i < 3; i++) {
-        for (int j = 0; j < 3; j++) {
-          c[i][j] = wt[i] * wt[j] * on.cx[i][j] + (1 - wt[i]) * (1 - wt[j]) * off.cx[i][j];
-        }
+      int bad =
+          OnOffCombination.combine(
+              on.x, on.cx, off.x, off.cx, options.onOffTolerance(), options.onOffSigmas(), x, c);
+      if (bad >= 0) {
+        String[] names = on.bi ? BI_NAMES : SIDE_NAMES;
+        return "on/off transients disagree on "
+            + names[bad]
+            + " ("
+            + fmt(on.x[bad])
+            + " vs "
+            + fmt(off.x[bad])
+            + ")";
       }
     }
 
@@ -176,25 +165,41 @@ public final class VoltageClampEstimator implements PulseEstimator {
     double rt = x[1];
     double tauMs = x[2];
     double rin = rt - ra;
-    double cm = 1000 * tauMs * rt / (ra * rin); // ms/MΩ = nF → ×1000 pF
-    double[] gRin = {-1, 1, 0};
-    double[] gCm = {-cm * (rt - 2 * ra) / (ra * rin), -cm * ra / (rt * rin), cm / tauMs};
+    double[] gRin = new double[k];
+    gRin[0] = -1;
+    gRin[1] = 1;
     b.value(Parameter.ACCESS_RESISTANCE, ra, Math.sqrt(c[0][0]));
     b.value(Parameter.TOTAL_RESISTANCE, rt, Math.sqrt(c[1][1]));
-    b.value(Parameter.INPUT_RESISTANCE, rin, Math.sqrt(quad(gRin, c)));
+    b.value(Parameter.INPUT_RESISTANCE, rin, Math.sqrt(OnOffCombination.quad(gRin, c)));
     b.value(Parameter.TIME_CONSTANT, tauMs, Math.sqrt(c[2][2]));
-    b.value(Parameter.MEMBRANE_CAPACITANCE, cm, Math.sqrt(quad(gCm, c)));
-
-    // Q = Cm·ΔV·(Rm/(Ra + Rm))² (CHECKS.md), so Cm(Q) = Q/ΔV·(Rt/Rin)²; pA·ms/mV = pF.
-    double ratio = rt / rin;
-    double cmq = on.chargePaMs / stepMv * ratio * ratio;
-    if (off != null) {
-      cmq = 0.5 * (cmq + off.chargePaMs / -stepMv * ratio * ratio);
+    double cm;
+    if (on.bi) {
+      // The capacitance the clamp charges (Q/ΔV·(Rt/Rin)², CHECKS.md): on a cell that is not
+      // electrotonically compact this is less than the whole membrane's.
+      cm = x[3];
+      b.model("bi");
+      b.value(Parameter.MEMBRANE_CAPACITANCE, cm, Math.sqrt(c[3][3]));
+      b.value(Parameter.CHARGE_CAPACITANCE, cm, Math.sqrt(c[3][3]));
+      b.value(Parameter.FAST_TIME_CONSTANT, x[4], Math.sqrt(c[4][4]));
+      b.value(Parameter.SLOW_TIME_CONSTANT, x[5], Math.sqrt(c[5][5]));
+      b.value(Parameter.FAST_AMPLITUDE, x[6], Math.sqrt(c[6][6]));
+      b.value(Parameter.SLOW_AMPLITUDE, x[7], Math.sqrt(c[7][7]));
+      b.note("two-exponential transient: Cm is the capacitance the clamp charges");
+    } else {
+      cm = 1000 * tauMs * rt / (ra * rin); // ms/MΩ = nF → ×1000 pF
+      double[] gCm = {-cm * (rt - 2 * ra) / (ra * rin), -cm * ra / (rt * rin), cm / tauMs};
+      b.value(Parameter.MEMBRANE_CAPACITANCE, cm, Math.sqrt(OnOffCombination.quad(gCm, c)));
+      // Q = Cm·ΔV·(Rm/(Ra + Rm))² (CHECKS.md), so Cm(Q) = Q/ΔV·(Rt/Rin)²; pA·ms/mV = pF.
+      double ratio = rt / rin;
+      double cmq = on.chargePaMs / stepMv * ratio * ratio;
+      if (off != null) {
+        cmq = 0.5 * (cmq + off.chargePaMs / -stepMv * ratio * ratio);
+      }
+      b.value(Parameter.CHARGE_CAPACITANCE, cmq);
     }
-    b.value(Parameter.CHARGE_CAPACITANCE, cmq);
 
-    double rss = on.fit.rssPa2 + (off == null ? 0 : off.fit.rssPa2);
-    int n = on.fit.samples + (off == null ? 0 : off.fit.samples);
+    double rss = on.rssPa2 + (off == null ? 0 : off.rssPa2);
+    int n = on.samples + (off == null ? 0 : off.samples);
     b.rmsResidual(Math.sqrt(rss / n));
 
     if (!Double.isFinite(ra) || !Double.isFinite(rt) || !Double.isFinite(cm)) {
@@ -227,16 +232,26 @@ public final class VoltageClampEstimator implements PulseEstimator {
     return null;
   }
 
+  private static final double[] NONE = new double[0];
   private static final String[] SIDE_NAMES = {"Ra", "Rt", "tau"};
+  private static final String[] BI_NAMES = {
+    "Ra", "Rt", "tau", "Cm", "tau_fast", "tau_slow", "amp_fast", "amp_slow"
+  };
 
-  /** One fitted transient: (Ra, Rt, τ) with their covariance, and the charge it carried. */
+  /**
+   * One fitted transient: (Ra, Rt, τ) — or, two-exponential, (Ra, Rt, τ, Cm, τ₁, τ₂, A₁, A₂) — with
+   * their covariance, and the charge it carried.
+   */
   private static final class Side {
-    TransientFit.Result fit;
+    boolean bi;
     double steadyPa;
-    final double[] x = new double[3];
-    final double[][] cx = new double[3][3];
-    double tauMs;
+    double steadyVar;
+    double[] x;
+    double[][] cx;
+    double slowestTauMs;
     double chargePaMs;
+    double rssPa2;
+    int samples;
   }
 
   /**
@@ -264,7 +279,31 @@ public final class VoltageClampEstimator implements PulseEstimator {
     return Math.max(start, edge + 1);
   }
 
-  /** Fits the transient after the command edge at row {@code edge} up to row {@code last}. */
+  /**
+   * The filter gain correction g(τ) = 1/H(−1/τ) (or its group-delay approximation) and dg/dτ, for a
+   * tail of time constant {@code tauMs}: {g, dg/dτ (per ms)}.
+   */
+  static double[] filterGain(EstimatorOptions options, BesselFilterModel filter, double tauMs) {
+    double delayMs = filter.groupDelayS() * 1e3;
+    return switch (options.filterCompensation()) {
+      case GROUP_DELAY -> {
+        double g = Math.exp(-delayMs / tauMs);
+        yield new double[] {g, g * delayMs / (tauMs * tauMs)};
+      }
+      case BESSEL_GAIN ->
+          new double[] {
+            filter.tailCorrection(tauMs * 1e-3),
+            filter.tailCorrectionDerivative(tauMs * 1e-3) * 1e-3
+          };
+      default -> new double[] {1, 0};
+    };
+  }
+
+  /**
+   * Fits the transient after the command edge at row {@code edge} up to row {@code last}. The
+   * on-transient ({@code model == null}) chooses between one and two exponentials; the
+   * off-transient follows its choice.
+   */
   private String fitSide(
       PulseWindow w,
       int edge,
@@ -272,24 +311,268 @@ public final class VoltageClampEstimator implements PulseEstimator {
       double refPa,
       double refVar,
       double stepMv,
-      double noisePa,
+      BaselineNoise noise,
       double dtMs,
+      int window,
+      Side model,
       Side s) {
     int start = startRow(w, edge, last);
     if (last - start + 1 < options.minFitSamples()) {
       return "too few samples after the filter settles";
     }
+    double inflation = noise.varianceInflation();
+    double noisePa = noise.sd();
     TransientFit.Result r =
         TransientFit.fit(w.response, start, last, edge, dtMs, options.maxIterations());
-    s.fit = r;
     if (r.failure != null) {
       return r.failure;
     }
-    double tauMs = r.tauMs;
     double amp = r.amplitudePa;
-    if (!(Math.abs(amp) > options.minTransientSigmas() * Math.sqrt(r.covariance[1][1]))) {
+    if (!(Math.abs(amp)
+        > options.minTransientSigmas() * Math.sqrt(inflation * r.covariance[1][1]))) {
       return "no capacitive transient above the noise";
     }
+    BiExponentialFit.Result bi = null;
+    if (model == null && monoShowsStructure(w, start, last, edge, dtMs, r, noise, window)) {
+      bi = chooseTwoExponentials(w.response, start, last, edge, dtMs, r, inflation);
+    } else if (model != null && model.bi) {
+      bi =
+          BiExponentialFit.fit(
+              w.response, start, last, edge, dtMs, options.maxIterations(), r.tauMs);
+      if (bi.failure != null) {
+        return bi.failure;
+      }
+    }
+    s.bi = bi != null;
+    if (bi == null) {
+      return monoSide(w, edge, last, start, refPa, refVar, stepMv, noise, dtMs, window, r, s);
+    }
+    double[] p = bi.p;
+    double excursion =
+        ResidualExcursion.sigmas(
+            w.response,
+            start,
+            last,
+            edge,
+            dtMs,
+            p[BiExponentialFit.ISS],
+            new double[] {p[BiExponentialFit.A1], p[BiExponentialFit.A2]},
+            new double[] {p[BiExponentialFit.T1], p[BiExponentialFit.T2]},
+            noise,
+            window,
+            CurrentClampEstimator.EXCURSION_FLOOR_FACTOR
+                * options.residualFloorFraction()
+                * Math.abs(
+                    p[BiExponentialFit.A1]
+                            * Math.exp(-(start - edge) * dtMs / p[BiExponentialFit.T1])
+                        + p[BiExponentialFit.A2]
+                            * Math.exp(-(start - edge) * dtMs / p[BiExponentialFit.T2])));
+    if (excursion > options.maxExcursionSigmas()) {
+      return excursionText(excursion);
+    }
+    double rms = Math.sqrt(bi.rssPa2 / bi.samples);
+    double biAtStart =
+        Math.abs(
+            p[BiExponentialFit.A1] * Math.exp(-(start - edge) * dtMs / p[BiExponentialFit.T1])
+                + p[BiExponentialFit.A2]
+                    * Math.exp(-(start - edge) * dtMs / p[BiExponentialFit.T2]));
+    if (rms
+        > options.maxResidualToNoise() * noisePa + options.residualFloorFraction() * biAtStart) {
+      return "residual " + fmt(rms) + " pA far above the baseline noise " + fmt(noisePa) + " pA";
+    }
+    // u = (I_ss, A₁, τ₁, A₂, τ₂, I_ref); the fit's part widened by the noise's correlation.
+    double[] u = {
+      p[0], p[1], p[2], p[3], p[4], refPa,
+    };
+    double[][] cu = new double[6][6];
+    for (int i = 0; i < 5; i++) {
+      for (int j = 0; j < 5; j++) {
+        cu[i][j] = bi.covariance[i][j] * inflation;
+      }
+    }
+    cu[5][5] = refVar;
+    double[] x = biDerived(u, stepMv);
+    // Delta method with a central-difference Jacobian of the derived values.
+    double[][] jac = new double[x.length][6];
+    for (int j = 0; j < 6; j++) {
+      double h = 1e-6 * Math.max(Math.abs(u[j]), j == 2 || j == 4 ? 1e-3 : 1e-3);
+      double[] up = u.clone();
+      double[] dn = u.clone();
+      up[j] += h;
+      dn[j] -= h;
+      double[] xp = biDerived(up, stepMv);
+      double[] xd = biDerived(dn, stepMv);
+      for (int i = 0; i < x.length; i++) {
+        jac[i][j] = (xp[i] - xd[i]) / (2 * h);
+      }
+    }
+    s.x = x;
+    s.cx = OnOffCombination.propagate(jac, cu);
+    s.steadyPa = p[0];
+    s.steadyVar = bi.covariance[0][0] * inflation;
+    s.slowestTauMs = p[BiExponentialFit.T2];
+    s.rssPa2 = bi.rssPa2;
+    s.samples = bi.samples;
+    return null;
+  }
+
+  /**
+   * Whether the one-exponential residual has structure worth a second exponential: its running
+   * average strays beyond {@link #PRESCREEN_SIGMAS} standard deviations (past the model-error
+   * allowance), or its rms exceeds the baseline noise by a tenth. Only then is the two-exponential
+   * model fitted and put to the F-test, which keeps a compact cell's pulse at one fit per side.
+   */
+  private boolean monoShowsStructure(
+      PulseWindow w,
+      int start,
+      int last,
+      int edge,
+      double dtMs,
+      TransientFit.Result r,
+      BaselineNoise noise,
+      int window) {
+    double ampAtStart = r.amplitudePa * Math.exp(-(start - edge) * dtMs / r.tauMs);
+    double floor = options.residualFloorFraction() * Math.abs(ampAtStart);
+    if (r.transientRmsPa > 1.1 * noise.sd() + floor) {
+      return true;
+    }
+    double sd =
+        ResidualExcursion.sigmas(
+            w.response,
+            start,
+            last,
+            edge,
+            dtMs,
+            r.steadyPa,
+            new double[] {r.amplitudePa},
+            new double[] {r.tauMs},
+            noise,
+            window,
+            CurrentClampEstimator.EXCURSION_FLOOR_FACTOR * floor);
+    return sd > PRESCREEN_SIGMAS;
+  }
+
+  /** See {@link #monoShowsStructure}. */
+  static final double PRESCREEN_SIGMAS = 3;
+
+  /**
+   * The two-exponential fit when it explains the transient significantly better, else null.
+   *
+   * <p>Criterion: the extra-sum-of-squares F-test, F = ((RSS₁ − RSS₂)/2)/(RSS₂/(n − 5)), compared
+   * with the F(2, n − 5) quantile at 1 − {@link EstimatorOptions#modelSelectionAlpha()} (nested
+   * least-squares models; e.g. Bates &amp; Watts, Nonlinear Regression Analysis, 1988 — from
+   * memory). F is first divided by the noise's variance inflation, since correlated noise puts that
+   * much more power into the smooth directions the extra exponential can follow. The two components
+   * must also be distinct (τ₂ ≥ 1.5·τ₁) and each amplitude at least 3 standard errors, with the
+   * sign of the one-exponential amplitude (soma and dendrite charge the same way).
+   */
+  private BiExponentialFit.Result chooseTwoExponentials(
+      double[] y,
+      int start,
+      int last,
+      int edge,
+      double dtMs,
+      TransientFit.Result mono,
+      double infl) {
+    int n = last - start + 1;
+    if (n < 4 * options.minFitSamples()) {
+      return null;
+    }
+    BiExponentialFit.Result bi =
+        BiExponentialFit.fit(y, start, last, edge, dtMs, options.maxIterations(), mono.tauMs);
+    if (bi.failure != null || !(bi.rssPa2 < mono.rssPa2)) {
+      return null;
+    }
+    double f = ((mono.rssPa2 - bi.rssPa2) / 2) / (bi.rssPa2 / (n - BiExponentialFit.P)) / infl;
+    double critical =
+        new FDistribution(2, n - BiExponentialFit.P)
+            .inverseCumulativeProbability(1 - options.modelSelectionAlpha());
+    if (!(f > critical)) {
+      return null;
+    }
+    double[] p = bi.p;
+    double sign = Math.signum(mono.amplitudePa);
+    boolean distinct = p[BiExponentialFit.T2] >= 1.5 * p[BiExponentialFit.T1];
+    boolean a1 =
+        Math.signum(p[BiExponentialFit.A1]) == sign
+            && Math.abs(p[BiExponentialFit.A1])
+                > 3 * Math.sqrt(infl * bi.covariance[BiExponentialFit.A1][BiExponentialFit.A1]);
+    boolean a2 =
+        Math.signum(p[BiExponentialFit.A2]) == sign
+            && Math.abs(p[BiExponentialFit.A2])
+                > 3 * Math.sqrt(infl * bi.covariance[BiExponentialFit.A2][BiExponentialFit.A2]);
+    return distinct && a1 && a2 ? bi : null;
+  }
+
+  /**
+   * (Ra, Rt, τ, Cm, τ₁, τ₂, A₁, A₂) from u = (I_ss, A₁, τ₁, A₂, τ₂, I_ref) of a two-exponential
+   * transient. Onset amplitudes are carried back through the filter; I₀ = ΣA_k·g_k + ΔI_ss gives
+   * Ra, ΔI_ss gives Rt, and τ = ΣA_k·g_k·τ_k / ΣA_k·g_k is the transient's area over its initial
+   * amplitude.
+   *
+   * <p>The charged capacitance: the fitted transient is the step response of the cell's admittance
+   * Y(s) = 1/Rt + Σ a_k·s/(s + 1/τ_k), a_k = A_k·g_k/ΔV. When the membrane has one time constant
+   * τ_m everywhere (uniform specific membrane resistance, as in Rall's model), every membrane
+   * admittance is C·(s + 1/τ_m), so the cell's impedance has a pole, and Y a zero, at s = −1/τ_m
+   * however the dendrite is wired; Y's zero nearest the origin gives τ_m. At steady state every
+   * compartment's leak current is C_k·ΔV_k/τ_m, so the stored charge is I_∞·τ_m and the charged
+   * capacitance Σ C_k·ΔV_k / ΔV_soma = τ_m/Rin. For one compartment this reduces to τ·Rt/(Ra·Rin),
+   * the one-exponential formula (derived here from the circuit; CHECKS.md's definitions).
+   */
+  private double[] biDerived(double[] u, double stepMv) {
+    double g1 = filterGain(options, filter, u[2])[0];
+    double g2 = filterGain(options, filter, u[4])[0];
+    double a1 = u[1] * g1;
+    double a2 = u[3] * g2;
+    double dIss = u[0] - u[5];
+    double dI0 = a1 + a2 + dIss;
+    double ra = MOHM_PER_MV_PER_PA * stepMv / dI0;
+    double rt = MOHM_PER_MV_PER_PA * stepMv / dIss;
+    double tau = (a1 * u[2] + a2 * u[4]) / (a1 + a2);
+    double rin = rt - ra;
+    // Zeros of Y(s)(s + λ₁)(s + λ₂) = G(s + λ₁)(s + λ₂) + a₁s(s + λ₂) + a₂s(s + λ₁), per mV.
+    double gInf = dIss / stepMv;
+    double c1 = a1 / stepMv;
+    double c2 = a2 / stepMv;
+    double l1 = 1 / u[2];
+    double l2 = 1 / u[4];
+    double qa = gInf + c1 + c2;
+    double qb = gInf * (l1 + l2) + c1 * l2 + c2 * l1;
+    double qc = gInf * l1 * l2;
+    double disc = Math.sqrt(Math.max(0, qb * qb - 4 * qa * qc));
+    // The root nearest zero, written to avoid cancellation: 2c/(−b − √Δ).
+    double zero = 2 * qc / (-qb - disc);
+    double tauM = -1 / zero;
+    double cm = 1000 * tauM / rin; // ms/MΩ = nF
+    // Amplitudes signed by the step, so the on- and off-transients agree.
+    double sign = Math.signum(stepMv);
+    return new double[] {ra, rt, tau, cm, u[2], u[4], sign * a1, sign * a2};
+  }
+
+  private static String excursionText(double sd) {
+    return "residual excursion of "
+        + fmt(sd)
+        + " sd (an event, a spike or an artefact rides on the transient)";
+  }
+
+  /** The one-exponential side: residual tests, then (Ra, Rt, τ) with analytic gradients. */
+  private String monoSide(
+      PulseWindow w,
+      int edge,
+      int last,
+      int start,
+      double refPa,
+      double refVar,
+      double stepMv,
+      BaselineNoise noise,
+      double dtMs,
+      int window,
+      TransientFit.Result r,
+      Side s) {
+    double tauMs = r.tauMs;
+    double amp = r.amplitudePa;
+    double noisePa = noise.sd();
+    double inflation = noise.varianceInflation();
     double ampAtStart = amp * Math.exp(-(start - edge) * dtMs / tauMs);
     double limit =
         options.maxResidualToNoise() * noisePa
@@ -301,35 +584,40 @@ public final class VoltageClampEstimator implements PulseEstimator {
           + fmt(noisePa)
           + " pA";
     }
+    double excursion =
+        ResidualExcursion.sigmas(
+            w.response,
+            start,
+            last,
+            edge,
+            dtMs,
+            r.steadyPa,
+            new double[] {amp},
+            new double[] {tauMs},
+            noise,
+            window,
+            CurrentClampEstimator.EXCURSION_FLOOR_FACTOR
+                * options.residualFloorFraction()
+                * Math.abs(ampAtStart));
+    if (excursion > options.maxExcursionSigmas()) {
+      return excursionText(excursion);
+    }
 
     // Back through the filter: the true amplitude is the tail's amplitude times g(τ).
-    double g;
-    double dg;
+    double[] gain = filterGain(options, filter, tauMs);
+    double g = gain[0];
+    double dg = gain[1];
     double delayMs = filter.groupDelayS() * 1e3;
-    switch (options.filterCompensation()) {
-      case GROUP_DELAY -> {
-        g = Math.exp(-delayMs / tauMs);
-        dg = g * delayMs / (tauMs * tauMs);
-      }
-      case BESSEL_GAIN -> {
-        g = filter.tailCorrection(tauMs * 1e-3);
-        dg = filter.tailCorrectionDerivative(tauMs * 1e-3) * 1e-3;
-      }
-      default -> {
-        g = 1;
-        dg = 0;
-      }
-    }
     double dI0 = amp * g + (r.steadyPa - refPa);
     double dIss = r.steadyPa - refPa;
     double ra = MOHM_PER_MV_PER_PA * stepMv / dI0;
     double rt = MOHM_PER_MV_PER_PA * stepMv / dIss;
     s.steadyPa = r.steadyPa;
-    s.tauMs = tauMs;
-    s.x[0] = ra;
-    s.x[1] = rt;
-    s.x[2] = tauMs;
-    // Gradients over u = (I_ss, A, τ, I_ref); I_ref is independent of the fit.
+    s.steadyVar = r.covariance[0][0] * inflation;
+    s.slowestTauMs = tauMs;
+    s.x = new double[] {ra, rt, tauMs};
+    // Gradients over u = (I_ss, A, τ, I_ref); I_ref is independent of the fit, and the fit's
+    // covariance is widened by the noise's correlation (BaselineNoise).
     double[][] grad = {
       {-ra / dI0, -ra / dI0 * g, -ra / dI0 * amp * dg, ra / dI0},
       {-rt / dIss, 0, 0, rt / dIss},
@@ -337,21 +625,15 @@ public final class VoltageClampEstimator implements PulseEstimator {
     };
     double[][] cu = new double[4][4];
     for (int i = 0; i < 3; i++) {
-      System.arraycopy(r.covariance[i], 0, cu[i], 0, 3);
-    }
-    cu[3][3] = refVar;
-    for (int i = 0; i < 3; i++) {
       for (int j = 0; j < 3; j++) {
-        double v = 0;
-        for (int k = 0; k < 4; k++) {
-          for (int l = 0; l < 4; l++) {
-            v += grad[i][k] * cu[k][l] * grad[j][l];
-          }
-        }
-        s.cx[i][j] = v;
+        cu[i][j] = r.covariance[i][j] * inflation;
       }
     }
+    cu[3][3] = refVar;
+    s.cx = OnOffCombination.propagate(grad, cu);
     s.chargePaMs = charge(w.response, edge, last, r, dtMs, delayMs, dIss);
+    s.rssPa2 = r.rssPa2;
+    s.samples = r.samples;
     return null;
   }
 
@@ -384,16 +666,6 @@ public final class VoltageClampEstimator implements PulseEstimator {
     q += r.amplitudePa * tau * Math.exp(-(last - edge) * dtMs / tau);
     q += dIss * delayMs;
     return q;
-  }
-
-  private static double quad(double[] g, double[][] c) {
-    double v = 0;
-    for (int i = 0; i < g.length; i++) {
-      for (int j = 0; j < g.length; j++) {
-        v += g[i] * c[i][j] * g[j];
-      }
-    }
-    return v;
   }
 
   private static String fmt(double v) {

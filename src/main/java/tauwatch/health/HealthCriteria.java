@@ -17,6 +17,9 @@ import tauwatch.fit.Parameter;
  * @param noPulseTimeoutS stream seconds without any pulse before the state is {@code no signal}
  * @param limits the rules per parameter; parameters absent here are not judged
  * @param drift the change detector's settings
+ * @param averagePulses accepted pulses in the uncertainty-weighted running average
+ * @param changeSigmas a change from the baseline smaller than this many standard errors of the
+ *     running average is not a drift (the relative and absolute change rules stay quiet)
  */
 public record HealthCriteria(
     int baselinePulses,
@@ -25,7 +28,15 @@ public record HealthCriteria(
     double driftWarningFraction,
     double noPulseTimeoutS,
     Map<Parameter, ParameterLimits> limits,
-    DriftDetection drift) {
+    DriftDetection drift,
+    int averagePulses,
+    double changeSigmas) {
+
+  /** 10 pulses: 5 s at 2 pulses/s, a tenth of the noise of one pulse's estimate at most. */
+  public static final int DEFAULT_AVERAGE_PULSES = 10;
+
+  /** 2 standard errors: a two-sided 95 % band (common practice). */
+  public static final double DEFAULT_CHANGE_SIGMAS = 2;
 
   /** 20 pulses: 10 s at 2 pulses/s, long enough to average noise, short against drift. */
   public static final int DEFAULT_BASELINE_PULSES = 20;
@@ -54,13 +65,19 @@ public record HealthCriteria(
       throw new IllegalArgumentException(
           "no_pulse_timeout_s must be positive, got " + noPulseTimeoutS);
     }
+    if (averagePulses < 1) {
+      throw new IllegalArgumentException("average_pulses must be >= 1, got " + averagePulses);
+    }
+    if (!(changeSigmas >= 0) || Double.isInfinite(changeSigmas)) {
+      throw new IllegalArgumentException("change_sigmas must be >= 0, got " + changeSigmas);
+    }
     EnumMap<Parameter, ParameterLimits> copy = new EnumMap<>(Parameter.class);
     copy.putAll(limits);
     limits = java.util.Collections.unmodifiableMap(copy);
     java.util.Objects.requireNonNull(drift, "drift");
   }
 
-  /** Criteria with the default change detector. */
+  /** Criteria with the default change detector and running average. */
   public HealthCriteria(
       int baselinePulses,
       int debouncePulses,
@@ -75,7 +92,9 @@ public record HealthCriteria(
         driftWarningFraction,
         noPulseTimeoutS,
         limits,
-        DriftDetection.defaults());
+        DriftDetection.defaults(),
+        DEFAULT_AVERAGE_PULSES,
+        DEFAULT_CHANGE_SIGMAS);
   }
 
   /** The same criteria with other change-detector settings. */
@@ -87,7 +106,9 @@ public record HealthCriteria(
         driftWarningFraction,
         noPulseTimeoutS,
         limits,
-        d);
+        d,
+        averagePulses,
+        changeSigmas);
   }
 
   /**

@@ -30,6 +30,7 @@ public final class HealthMonitor {
   private final AtomicBoolean baselineRequested = new AtomicBoolean();
   private final AtomicInteger pendingAlarms = new AtomicInteger();
   private final double[] lastValue;
+  private final WeightedRunningAverage average;
 
   private volatile HealthSnapshot snapshot;
   private double lastPulseTimeS = Double.NaN;
@@ -41,6 +42,7 @@ public final class HealthMonitor {
     this.events = events;
     this.clock = clock;
     this.baseline = new Baseline(criteria.baselinePulses());
+    this.average = new WeightedRunningAverage(criteria.averagePulses());
     for (ParameterLimits l : criteria.limits().values()) {
       if (l.hasAnyRule()) {
         judges.put(l.parameter(), new ParameterJudge(l, criteria));
@@ -66,6 +68,7 @@ public final class HealthMonitor {
       return publish(e.pulseNumber(), t);
     }
     signalLost = false;
+    average.add(e);
     boolean completed = baseline.add(e);
     if (baselineRequested.getAndSet(false)) {
       baseline.setNow();
@@ -87,11 +90,34 @@ public final class HealthMonitor {
       ParameterJudge j = judges.get(p);
       HealthState before = j.state();
       double b = baseline.isSet() ? baseline.value(p) : Double.NaN;
-      if (j.judge(e.pulseNumber(), t, v, e.standardError(p), b)) {
+      if (j.judge(e.pulseNumber(), t, v, e.standardError(p), b, changeSignificant(p, b))) {
         onStateChange(p, before, j.state(), v, b, t);
       }
     }
     return publish(e.pulseNumber(), t);
+  }
+
+  /**
+   * Whether the running average of {@code p} has moved from the baseline by more than {@link
+   * HealthCriteria#changeSigmas()} of its standard error; true when either is unknown (no gate).
+   */
+  private boolean changeSignificant(Parameter p, double b) {
+    double avg = average.value(p);
+    double se = average.standardError(p);
+    if (Double.isNaN(b) || Double.isNaN(avg) || Double.isNaN(se)) {
+      return true;
+    }
+    return Math.abs(avg - b) >= criteria.changeSigmas() * se;
+  }
+
+  /** The uncertainty-weighted average of {@code p} over the latest accepted pulses, or NaN. */
+  public double runningAverage(Parameter p) {
+    return average.value(p);
+  }
+
+  /** The standard error of {@link #runningAverage}, or NaN. Analysis thread only. */
+  public double runningAverageStandardError(Parameter p) {
+    return average.standardError(p);
   }
 
   /** The source lost its signal: every parameter goes to {@code no signal}. */

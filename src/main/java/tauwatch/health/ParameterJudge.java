@@ -64,8 +64,25 @@ final class ParameterJudge {
    * @return true if the state changed
    */
   boolean judge(long pulse, double timeS, double v, double standardError, double baseline) {
+    return judge(pulse, timeS, v, standardError, baseline, true);
+  }
+
+  /**
+   * Judges a new accepted value; with {@code changeSignificant} false (the running average's change
+   * from the baseline is within its uncertainty) the relative and absolute change rules do not
+   * count, so only the absolute limits and the change detector can move the state.
+   *
+   * @return true if the state changed
+   */
+  boolean judge(
+      long pulse,
+      double timeS,
+      double v,
+      double standardError,
+      double baseline,
+      boolean changeSignificant) {
     detector.update(pulse, timeS, v, standardError, baseline);
-    computeUsage(v, baseline);
+    computeUsage(v, baseline, changeSignificant);
     HealthState target = targetFor(usage);
     boolean detected = target == HealthState.STEADY && detector.flagged() != ChangeDetector.NONE;
     if (detected) {
@@ -128,7 +145,7 @@ final class ParameterJudge {
     return HealthState.STEADY;
   }
 
-  private void computeUsage(double v, double b) {
+  private void computeUsage(double v, double b, boolean changeSignificant) {
     usage = 0;
     usageRule = RULE_NONE;
     boolean hasBaseline = !Double.isNaN(b);
@@ -150,10 +167,10 @@ final class ParameterJudge {
       }
       take(u, RULE_MIN);
     }
-    if (hasBaseline && !Double.isNaN(limits.maxChangePercent()) && b != 0) {
+    if (changeSignificant && hasBaseline && !Double.isNaN(limits.maxChangePercent()) && b != 0) {
       take(Math.abs(v - b) / (limits.maxChangePercent() / 100.0 * Math.abs(b)), RULE_PERCENT);
     }
-    if (hasBaseline && !Double.isNaN(limits.maxChangeAbs())) {
+    if (changeSignificant && hasBaseline && !Double.isNaN(limits.maxChangeAbs())) {
       take(Math.abs(v - b) / limits.maxChangeAbs(), RULE_ABS);
     }
   }

@@ -1,5 +1,6 @@
 package tauwatch.monitor;
 
+import tauwatch.fit.CurrentClampEstimator;
 import tauwatch.fit.PulseEstimator;
 import tauwatch.fit.VoltageClampEstimator;
 import tauwatch.stream.ClampMode;
@@ -16,7 +17,9 @@ public final class PulseEstimators {
     if (format.mode() == ClampMode.VOLTAGE_CLAMP) {
       return new VoltageClampEstimator(config.estimator());
     }
-    throw new IllegalArgumentException(
-        "current-clamp streams need the current-clamp estimator, not in this version");
+    if (format.mode() == ClampMode.CURRENT_CLAMP) {
+      return new CurrentClampEstimator(config.estimator());
+    }
+    throw new IllegalArgumentException("no estimator for clamp mode " + format.mode());
   }
 }

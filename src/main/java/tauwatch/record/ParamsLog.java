@@ -38,7 +38,17 @@ public final class ParamsLog implements Closeable {
     Parameter.INPUT_RESISTANCE,
     Parameter.TOTAL_RESISTANCE,
     Parameter.MEMBRANE_CAPACITANCE,
-    Parameter.TIME_CONSTANT
+    Parameter.TIME_CONSTANT,
+    Parameter.HOLDING_CURRENT,
+    Parameter.RESTING_POTENTIAL
+  };
+
+  /** The components of a two-exponential transient, with their standard errors. */
+  private static final Parameter[] COMPONENT_COLUMNS = {
+    Parameter.FAST_TIME_CONSTANT,
+    Parameter.SLOW_TIME_CONSTANT,
+    Parameter.FAST_AMPLITUDE,
+    Parameter.SLOW_AMPLITUDE
   };
 
   private final Path path;
@@ -68,6 +78,11 @@ public final class ParamsLog implements Closeable {
       sb.append(',').append(p.key()).append("_se_").append(unitSuffix(p));
     }
     sb.append(",step,rms_residual,model,alarms,reject_reason");
+    for (Parameter p : COMPONENT_COLUMNS) {
+      sb.append(',').append(columnName(p));
+      sb.append(',').append(p.key()).append("_se_").append(unitSuffix(p));
+    }
+    sb.append(",note");
     if (sweepColumns) {
       sb.append(",sweep,sweep_t_s");
     }
@@ -117,6 +132,11 @@ public final class ParamsLog implements Closeable {
     sb.append(',').append(CsvText.text(e.model()));
     sb.append(',').append(CsvText.text(alarms(health)));
     sb.append(',').append(CsvText.text(e.rejectReason()));
+    for (Parameter p : COMPONENT_COLUMNS) {
+      sb.append(',').append(CsvText.number(e.value(p), 6));
+      sb.append(',').append(CsvText.number(e.standardError(p), 3));
+    }
+    sb.append(',').append(CsvText.text(e.note()));
     if (sweepColumns) {
       sb.append(',').append(e.sweepNumber() >= 0 ? Long.toString(e.sweepNumber()) : "");
       sb.append(',').append(CsvText.fixed(e.sweepTimeS(), 6));

@@ -4,7 +4,9 @@ package tauwatch.sim;
  * The recording side of the simulated rig: sampling, the amplifier's output filter, noise, mains
  * hum and the digitiser.
  *
- * <p>Immutable and validated on construction.
+ * <p>Immutable and validated on construction. Noise, hum and the digitiser's range are in the
+ * response's unit: pA in voltage clamp, mV in current clamp (the names keep the voltage-clamp
+ * unit).
  *
  * @param sampleRateHz samples per second
  * @param filterCutoffHz −3 dB cutoff of the 4-pole low-pass Bessel output filter; 0 for no filter
@@ -13,6 +15,8 @@ package tauwatch.sim;
  * @param humFrequencyHz frequency of the mains hum
  * @param adcBits digitiser resolution; 0 for no quantisation
  * @param adcRangePa digitiser full scale, ± pA
+ * @param bridgeBalanceMOhm current clamp only: the bridge balance the amplifier subtracts (I·R from
+ *     the recorded voltage), MΩ; 0 = not balanced
  */
 public record AmplifierSettings(
     double sampleRateHz,
@@ -21,7 +25,28 @@ public record AmplifierSettings(
     double humAmplitudePa,
     double humFrequencyHz,
     int adcBits,
-    double adcRangePa) {
+    double adcRangePa,
+    double bridgeBalanceMOhm) {
+
+  /** Settings without a bridge balance. */
+  public AmplifierSettings(
+      double sampleRateHz,
+      double filterCutoffHz,
+      double noiseRmsPa,
+      double humAmplitudePa,
+      double humFrequencyHz,
+      int adcBits,
+      double adcRangePa) {
+    this(
+        sampleRateHz,
+        filterCutoffHz,
+        noiseRmsPa,
+        humAmplitudePa,
+        humFrequencyHz,
+        adcBits,
+        adcRangePa,
+        0);
+  }
 
   public AmplifierSettings {
     if (!(sampleRateHz > 0) || Double.isInfinite(sampleRateHz)) {
@@ -44,6 +69,10 @@ public record AmplifierSettings(
     if (adcBits != 0 && (adcBits < 2 || adcBits > 32)) {
       throw new IllegalArgumentException(
           "ADC bits must be 0 (no quantisation) or 2..32, got " + adcBits);
+    }
+    if (!(bridgeBalanceMOhm >= 0) || Double.isInfinite(bridgeBalanceMOhm)) {
+      throw new IllegalArgumentException(
+          "bridge balance (MΩ) must be >= 0, got " + bridgeBalanceMOhm);
     }
     if (adcBits != 0 && (!(adcRangePa > 0) || Double.isInfinite(adcRangePa))) {
       throw new IllegalArgumentException("ADC range (pA) must be > 0, got " + adcRangePa);

@@ -125,6 +125,40 @@ public record CellTruth(
         slow);
   }
 
+  /**
+   * The time constant of the unclamped cell, as current clamp sees it, for a perfect seal: Rm·Cm
+   * for one compartment, the slowest mode of the soma–dendrite node matrix with a dendrite (the
+   * eigenvalue of [[−(gm + gx)/Cm, gx/Cm], [gx/Cd, −(gx + gd)/Cd]] nearest zero).
+   */
+  public double currentClampTauMs() {
+    double rm = cell.membraneMOhm() / 1000.0;
+    double cm = cell.membraneCapacitancePf();
+    if (!cell.hasDendrite()) {
+      return rm * cm;
+    }
+    double gm = 1 / rm;
+    double gx = 1000.0 / cell.axialMOhm();
+    double gd = 1000.0 / cell.dendriteMOhm();
+    double cd = cell.dendriteCapacitancePf();
+    double m00 = -(gm + gx) / cm;
+    double m01 = gx / cm;
+    double m10 = gx / cd;
+    double m11 = -(gx + gd) / cd;
+    double halfTrace = 0.5 * (m00 + m11);
+    double det = m00 * m11 - m01 * m10;
+    return -1 / (halfTrace + Math.sqrt(halfTrace * halfTrace - det));
+  }
+
+  /** The cell's input resistance without the electrode (Rm, or Rm ∥ (Rax + Rd)), MΩ. */
+  public double cellInputMOhm() {
+    double rm = cell.membraneMOhm();
+    if (!cell.hasDendrite()) {
+      return rm;
+    }
+    double branch = cell.axialMOhm() + cell.dendriteMOhm();
+    return rm * branch / (rm + branch);
+  }
+
   private static double parallel(double r1, double r2) {
     return Double.isInfinite(r2) ? r1 : r1 * r2 / (r1 + r2);
   }

@@ -13,6 +13,8 @@ package tauwatch.sim;
  * @param protocol the test-pulse command
  * @param amplifier sampling, filter, noise, hum and digitiser
  * @param schedule the cell's parameters over time
+ * @param synaptic spontaneous synaptic currents ({@link SynapticActivity#NONE} for none)
+ * @param spikes current clamp: action potentials above a threshold ({@link SpikeWaveform#NONE})
  */
 public record Scenario(
     String name,
@@ -21,7 +23,30 @@ public record Scenario(
     long seed,
     TestPulseProtocol protocol,
     AmplifierSettings amplifier,
-    ParameterSchedule schedule) {
+    ParameterSchedule schedule,
+    SynapticActivity synaptic,
+    SpikeWaveform spikes) {
+
+  /** A scenario without synaptic events or spikes. */
+  public Scenario(
+      String name,
+      String description,
+      double durationS,
+      long seed,
+      TestPulseProtocol protocol,
+      AmplifierSettings amplifier,
+      ParameterSchedule schedule) {
+    this(
+        name,
+        description,
+        durationS,
+        seed,
+        protocol,
+        amplifier,
+        schedule,
+        SynapticActivity.NONE,
+        SpikeWaveform.NONE);
+  }
 
   public Scenario {
     if (name == null || name.isBlank()) {
@@ -34,6 +59,8 @@ public record Scenario(
       throw new IllegalArgumentException("scenario needs a protocol, an amplifier and a schedule");
     }
     description = description == null ? "" : description;
+    synaptic = synaptic == null ? SynapticActivity.NONE : synaptic;
+    spikes = spikes == null ? SpikeWaveform.NONE : spikes;
   }
 
   /** The cell's truth at {@code tS}, see {@link CellTruth}. */

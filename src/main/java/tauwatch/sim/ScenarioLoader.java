@@ -12,6 +12,7 @@ import java.util.Iterator;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import tauwatch.stream.ClampMode;
 
 /**
  * Reads scenario files (TOML; the format is described in {@code simulator/README.md}) from the
@@ -32,12 +33,36 @@ public final class ScenarioLoader {
           "seal-failing",
           "sudden-reseal",
           "model-circuit",
-          "dendritic-cell");
+          "dendritic-cell",
+          "cc-steady-cell",
+          "synaptic-cell");
 
   private static final Set<String> TOP_KEYS =
-      Set.of("name", "description", "duration_s", "seed", "protocol", "amplifier", "cell", "drift");
+      Set.of(
+          "name",
+          "description",
+          "duration_s",
+          "seed",
+          "protocol",
+          "amplifier",
+          "cell",
+          "drift",
+          "synaptic",
+          "spikes");
   private static final Set<String> PROTOCOL_KEYS =
-      Set.of("holding_mv", "step_mv", "step_width_ms", "period_ms", "first_onset_ms");
+      Set.of(
+          "mode",
+          "holding_mv",
+          "step_mv",
+          "holding_pa",
+          "step_pa",
+          "step_width_ms",
+          "period_ms",
+          "first_onset_ms");
+  private static final Set<String> SYNAPTIC_KEYS =
+      Set.of("rate_hz", "amplitude_pa", "amplitude_spread", "rise_ms", "decay_ms");
+  private static final Set<String> SPIKE_KEYS =
+      Set.of("threshold_mv", "amplitude_mv", "width_ms", "refractory_ms");
   private static final Set<String> AMPLIFIER_KEYS =
       Set.of(
           "sample_rate_hz",
@@ -46,7 +71,11 @@ public final class ScenarioLoader {
           "hum_amplitude_pa",
           "hum_frequency_hz",
           "adc_bits",
-          "adc_range_pa");
+          "adc_range_pa",
+          "noise_rms_mv",
+          "hum_amplitude_mv",
+          "adc_range_mv",
+          "bridge_balance_mohm");
 
   private ScenarioLoader() {}
 
@@ -118,10 +147,35 @@ public final class ScenarioLoader {
 
     JsonNode p = r.table(root, "protocol", true);
     r.onlyKeys(p, "protocol.", PROTOCOL_KEYS);
-    double holding = r.number(p, "protocol.", "holding_mv", Double.NaN, -200, 200);
-    double step = r.number(p, "protocol.", "step_mv", Double.NaN, -200, 200);
+    String modeText = r.text(p, "protocol.", "mode", "voltage-clamp");
+    ClampMode mode;
+    switch (modeText) {
+      case "voltage-clamp" -> mode = ClampMode.VOLTAGE_CLAMP;
+      case "current-clamp" -> mode = ClampMode.CURRENT_CLAMP;
+      default ->
+          throw r.error(
+              "protocol.mode", "must be \"voltage-clamp\" or \"current-clamp\", got " + modeText);
+    }
+    boolean cc = mode == ClampMode.CURRENT_CLAMP;
+    String unitKey = cc ? "_pa" : "_mv";
+    String otherKey = cc ? "_mv" : "_pa";
+    for (String k : new String[] {"holding", "step"}) {
+      if (p.has(k + otherKey)) {
+        throw r.error(
+            "protocol." + k + otherKey,
+            "does not belong to a " + modeText + " protocol (use " + k + unitKey + ")");
+      }
+    }
+    double holding =
+        cc
+            ? r.number(p, "protocol.", "holding_pa", 0, -10_000, 10_000)
+            : r.number(p, "protocol.", "holding_mv", Double.NaN, -200, 200);
+    double step =
+        cc
+            ? r.number(p, "protocol.", "step_pa", Double.NaN, -10_000, 10_000)
+            : r.number(p, "protocol.", "step_mv", Double.NaN, -200, 200);
     if (step == 0) {
-      throw r.error("protocol.step_mv", "must be non-zero");
+      throw r.error("protocol.step" + unitKey, "must be non-zero");
     }
     double width = r.number(p, "protocol.", "step_width_ms", Double.NaN, 1e-3, 1e5);
     double period = r.number(p, "protocol.", "period_ms", Double.NaN, 1e-3, 1e6);
@@ -129,22 +183,65 @@ public final class ScenarioLoader {
       throw r.error("protocol.period_ms", "must be longer than step_width_ms (" + width + ")");
     }
     double onset = r.number(p, "protocol.", "first_onset_ms", 10, 0, 1e6);
-    TestPulseProtocol protocol = new TestPulseProtocol(holding, step, width, period, onset);
+    TestPulseProtocol protocol = new TestPulseProtocol(holding, step, width, period, onset, mode);
 
     JsonNode a = r.table(root, "amplifier", false);
     r.onlyKeys(a, "amplifier.", AMPLIFIER_KEYS);
     double rate = r.number(a, "amplifier.", "sample_rate_hz", 50_000, 100, 1e7);
     double cutoff = r.number(a, "amplifier.", "filter_cutoff_hz", 10_000, 0, 1e7);
-    double noise = r.number(a, "amplifier.", "noise_rms_pa", 0, 0, 1e5);
-    double humAmp = r.number(a, "amplifier.", "hum_amplitude_pa", 0, 0, 1e5);
+    // The amplifier's keys carry the response's unit: pA in voltage clamp, mV in current clamp.
+    String respKey = otherKey;
+    String wrongKey = unitKey;
+    for (String k : new String[] {"noise_rms", "hum_amplitude", "adc_range"}) {
+      if (a.has(k + wrongKey)) {
+        throw r.error(
+            "amplifier." + k + wrongKey,
+            "does not belong to a " + modeText + " recording (use " + k + respKey + ")");
+      }
+    }
+    if (!cc && a.has("bridge_balance_mohm")) {
+      throw r.error("amplifier.bridge_balance_mohm", "applies to current clamp only");
+    }
+    double noise = r.number(a, "amplifier.", "noise_rms" + respKey, 0, 0, 1e5);
+    double humAmp = r.number(a, "amplifier.", "hum_amplitude" + respKey, 0, 0, 1e5);
     double humHz = r.number(a, "amplifier.", "hum_frequency_hz", 50, 0, rate / 2 * 0.999);
     int bits = (int) r.integer(a, "amplifier.", "adc_bits", 0, 0, 32);
     if (bits == 1) {
       throw r.error("amplifier.adc_bits", "must be 0 (no quantisation) or 2..32, got 1");
     }
-    double range = r.number(a, "amplifier.", "adc_range_pa", 2000, 1e-3, 1e9);
+    double range = r.number(a, "amplifier.", "adc_range" + respKey, cc ? 500 : 2000, 1e-3, 1e9);
+    double bridge = r.number(a, "amplifier.", "bridge_balance_mohm", 0, 0, 1e4);
     AmplifierSettings amplifier =
-        new AmplifierSettings(rate, cutoff, noise, humAmp, humHz, bits, range);
+        new AmplifierSettings(rate, cutoff, noise, humAmp, humHz, bits, range, bridge);
+
+    JsonNode synNode = r.table(root, "synaptic", false);
+    r.onlyKeys(synNode, "synaptic.", SYNAPTIC_KEYS);
+    SynapticActivity synaptic = SynapticActivity.NONE;
+    if (synNode.size() > 0) {
+      double synRate = r.number(synNode, "synaptic.", "rate_hz", Double.NaN, 0, 1e4);
+      double synAmp = r.number(synNode, "synaptic.", "amplitude_pa", Double.NaN, -1e5, 1e5);
+      double spread = r.number(synNode, "synaptic.", "amplitude_spread", 0.5, 0, 1);
+      double rise = r.number(synNode, "synaptic.", "rise_ms", 0.3, 1e-3, 1e3);
+      double decay = r.number(synNode, "synaptic.", "decay_ms", 3, 1e-3, 1e4);
+      if (!(decay > rise)) {
+        throw r.error("synaptic.decay_ms", "must be longer than rise_ms (" + rise + ")");
+      }
+      synaptic = new SynapticActivity(synRate, synAmp, spread, rise, decay);
+    }
+    JsonNode spikeNode = r.table(root, "spikes", false);
+    r.onlyKeys(spikeNode, "spikes.", SPIKE_KEYS);
+    SpikeWaveform spikes = SpikeWaveform.NONE;
+    if (spikeNode.size() > 0) {
+      if (!cc) {
+        throw r.error("spikes", "applies to current clamp only");
+      }
+      spikes =
+          new SpikeWaveform(
+              r.number(spikeNode, "spikes.", "threshold_mv", Double.NaN, -200, 200),
+              r.number(spikeNode, "spikes.", "amplitude_mv", 90, 0, 500),
+              r.number(spikeNode, "spikes.", "width_ms", 1, 1e-2, 100),
+              r.number(spikeNode, "spikes.", "refractory_ms", 5, 0, 1e4));
+    }
     try {
       new TestPulseCommand(protocol, rate);
     } catch (IllegalArgumentException e) {
@@ -203,7 +300,8 @@ public final class ScenarioLoader {
     } catch (IllegalArgumentException e) {
       throw r.error("drift", e.getMessage());
     }
-    return new Scenario(name, description, durationS, seed, protocol, amplifier, schedule);
+    return new Scenario(
+        name, description, durationS, seed, protocol, amplifier, schedule, synaptic, spikes);
   }
 
   private static double cellValue(Reader r, JsonNode cell, String prefix, CellQuantity q) {

@@ -9,25 +9,31 @@ import tauwatch.stream.ClampMode;
 import tauwatch.stream.StreamFormat;
 
 /**
- * A simulated whole-cell voltage-clamp recording: the command and recorded current of a scenario,
- * sample by sample, seeded and deterministic.
+ * A simulated whole-cell recording in voltage clamp or current clamp: the command and the recorded
+ * response of a scenario, sample by sample, seeded and deterministic.
  *
  * <p>Single-threaded: one source thread owns an instance. {@link #fill} allocates nothing, boxes
  * nothing and takes no lock; everything else may allocate.
  *
- * <p>The cell and the amplifier's output filter form one linear system ({@link VoltageClampPlant})
- * which is discretised exactly for a command held constant between samples ({@link ZeroOrderHold}).
- * Timing follows the interchange contract: the response of sample k is the output at t_k, reached
- * under the previous command; the command of sample k then acts over [t_k, t_k+1). While the
- * schedule changes, the system is re-discretised every {@value #REDISCRETISE_INTERVAL_MS} ms of
- * stream time with the parameters at the middle of the coming interval (a staircase of the
- * schedule; nothing is recomputed while nothing changes). The state carries over, so the membrane
- * potential stays continuous. The recording starts in the steady state at the holding potential.
+ * <p>The cell and the amplifier's output filter form one linear system ({@link VoltageClampPlant}
+ * or {@link CurrentClampPlant}, by the protocol's mode) which is discretised exactly for a command
+ * held constant between samples ({@link ZeroOrderHold}). Timing follows the interchange contract:
+ * the response of sample k is the output at t_k, reached under the previous command; the command of
+ * sample k then acts over [t_k, t_k+1). While the schedule changes, the system is re-discretised
+ * every {@value #REDISCRETISE_INTERVAL_MS} ms of stream time with the parameters at the middle of
+ * the coming interval (a staircase of the schedule; nothing is recomputed while nothing changes).
+ * The state carries over, so the membrane potential stays continuous. The recording starts in the
+ * steady state at the holding potential.
  *
  * <p>Noise: white Gaussian current, held over each sample, enters the filter's input; its gain is
  * calibrated once from the discrete filter's noise gain Σ_j (C Ad^j Bw)² so that the output rms is
  * the configured one. Without a filter the noise is added to each sample directly. Hum is added at
  * the output, then the digitiser rounds and clips.
+ *
+ * <p>Contamination ({@link SynapticActivity}, {@link SpikeWaveform}) draws from its own seeded
+ * generator, so a scenario without it produces exactly the samples it did before. Synaptic currents
+ * enter the soma node like the command (held over each sample); a spike is added at the filter's
+ * input when the soma potential crosses its threshold.
  */
 public final class SimulatedRecording {
   /** Grid of stream time on which a changing schedule is re-applied. */
@@ -36,7 +42,7 @@ public final class SimulatedRecording {
   private final Scenario scenario;
   private final StreamFormat format;
   private final ParameterSchedule schedule;
-  private final VoltageClampPlant plant;
+  private final ClampPlant plant;
   private final ZeroOrderHold zoh;
   private final TestPulseCommand pulses;
   private final AdcQuantiser adc;
@@ -45,6 +51,7 @@ public final class SimulatedRecording {
   private final double sampleIntervalMs;
   private final int updateIntervalSamples;
   private final boolean changing;
+  private final boolean filtered;
 
   // Continuous and discrete matrices, rebuilt in place.
   private final double[] a;
@@ -55,6 +62,7 @@ public final class SimulatedRecording {
   private final double[] bd;
   private final double[] bdCommand;
   private final double[] bdNoise;
+  private final double[] bdSynaptic;
   private final double[] bias;
   private double dCommand;
 
@@ -77,6 +85,31 @@ public final class SimulatedRecording {
   private long samples;
   private int untilUpdate;
 
+  // Synaptic events: two decaying states whose difference is the current (pA).
+  private final boolean synaptic;
+  private final SplittableRandom contamination;
+  private final double eventProbability;
+  private final double synAmplitudePa;
+  private final double synSpread;
+  private final double synRiseFactor;
+  private final double synDecayFactor;
+  private double synRise;
+  private double synDecay;
+
+  // Spikes (current clamp): the same two-state waveform, added at the output's input.
+  private final boolean spiking;
+  private final double spikeThresholdMv;
+  private final double spikeAmplitudeMv;
+  private final double spikeRiseFactor;
+  private final double spikeDecayFactor;
+  private final int refractorySamples;
+  private double spikeRise;
+  private double spikeDecay;
+  private boolean spikeArmed = true;
+  private int sinceSpike = Integer.MAX_VALUE;
+  private long spikesFired;
+  private long synapticEvents;
+
   /** A recording with the scenario's own seed. */
   public SimulatedRecording(Scenario scenario) {
     this(scenario, scenario.seed());
@@ -85,21 +118,20 @@ public final class SimulatedRecording {
   public SimulatedRecording(Scenario scenario, long seed) {
     this.scenario = scenario;
     AmplifierSettings amp = scenario.amplifier();
+    ClampMode mode = scenario.protocol().mode();
     this.format =
         new StreamFormat(
-            amp.sampleRateHz(),
-            ClampMode.VOLTAGE_CLAMP,
-            amp.filterCutoffHz(),
-            0.0,
-            "sim:" + scenario.name());
+            amp.sampleRateHz(), mode, amp.filterCutoffHz(), 0.0, "sim:" + scenario.name());
     this.schedule = scenario.schedule();
     this.changing = schedule.changesOverTime();
+    BesselFilter filter = amp.hasFilter() ? new BesselFilter(amp.filterCutoffHz()) : null;
     this.plant =
-        new VoltageClampPlant(
-            schedule.hasDendrite(),
-            amp.hasFilter() ? new BesselFilter(amp.filterCutoffHz()) : null);
+        mode == ClampMode.CURRENT_CLAMP
+            ? new CurrentClampPlant(schedule.hasDendrite(), filter, amp.bridgeBalanceMOhm())
+            : new VoltageClampPlant(schedule.hasDendrite(), filter);
     this.n = plant.states();
-    int in = VoltageClampPlant.INPUTS;
+    this.filtered = plant.filtered();
+    int in = ClampPlant.INPUTS;
     this.zoh = new ZeroOrderHold(n, in);
     this.pulses = new TestPulseCommand(scenario.protocol(), amp.sampleRateHz());
     this.adc = new AdcQuantiser(amp.adcBits(), amp.adcRangePa());
@@ -115,6 +147,7 @@ public final class SimulatedRecording {
     bd = new double[n * in];
     bdCommand = new double[n];
     bdNoise = new double[n];
+    bdSynaptic = new double[n];
     bias = new double[n];
     x = new double[n];
     xNext = new double[n];
@@ -138,6 +171,32 @@ public final class SimulatedRecording {
     humStepCos = Math.cos(dPhase);
     humStepSin = Math.sin(dPhase);
     untilUpdate = updateIntervalSamples;
+
+    SynapticActivity syn = scenario.synaptic();
+    synaptic = syn.active();
+    contamination = new SplittableRandom(seed ^ 0x5EED_C0_17A1L);
+    eventProbability = syn.rateHz() / amp.sampleRateHz();
+    synAmplitudePa = syn.amplitudePa() * syn.peakNormalisation();
+    synSpread = syn.amplitudeSpread();
+    synRiseFactor = Math.exp(-sampleIntervalMs / syn.riseMs());
+    synDecayFactor = Math.exp(-sampleIntervalMs / syn.decayMs());
+    SpikeWaveform spk = scenario.spikes();
+    spiking = spk.active() && mode == ClampMode.CURRENT_CLAMP;
+    spikeThresholdMv = spk.thresholdMv();
+    spikeAmplitudeMv = spk.amplitudeMv() * spk.peakNormalisation();
+    spikeRiseFactor = Math.exp(-sampleIntervalMs / spk.riseMs());
+    spikeDecayFactor = Math.exp(-sampleIntervalMs / spk.decayMs());
+    refractorySamples = (int) Math.ceil(spk.refractoryMs() / sampleIntervalMs);
+  }
+
+  /** Synaptic events begun so far. */
+  public long synapticEvents() {
+    return synapticEvents;
+  }
+
+  /** Spikes fired so far (current clamp). */
+  public long spikesFired() {
+    return spikesFired;
   }
 
   public StreamFormat format() {
@@ -163,8 +222,9 @@ public final class SimulatedRecording {
   }
 
   /**
-   * Writes the next {@code count} samples: the command (mV) into {@code command} and the recorded
-   * current (pA) into {@code response}, from index {@code offset}. Allocation-free.
+   * Writes the next {@code count} samples: the command (mV in VC, pA in CC) into {@code command}
+   * and the recorded response (pA in VC, mV in CC) into {@code response}, from index {@code
+   * offset}. Allocation-free.
    */
   public void fill(double[] command, double[] response, int offset, int count) {
     int i = offset;
@@ -196,6 +256,7 @@ public final class SimulatedRecording {
     final double[] ad = this.ad;
     final double[] bdCommand = this.bdCommand;
     final double[] bdNoise = this.bdNoise;
+    final double[] bdSynaptic = this.bdSynaptic;
     final double[] bias = this.bias;
     final double[] c = this.c;
     double[] x = this.x;
@@ -203,7 +264,14 @@ public final class SimulatedRecording {
     double uPrev = previousCommandMv;
     for (int s = from, end = from + count; s < end; s++) {
       double g = noisy ? random.nextGaussian() : 0.0;
+      double spike = 0;
+      if (spiking) {
+        spike = spikeAt(x[CellCircuit.SOMA]);
+      }
       double y = dCommand * uPrev + directNoisePa * g;
+      if (!filtered) {
+        y += spike;
+      }
       for (int r = 0; r < n; r++) {
         y += c[r] * x[r];
       }
@@ -216,9 +284,10 @@ public final class SimulatedRecording {
       double u = pulses.next();
       command[s] = u;
       response[s] = adc.quantise(y);
-      double w = filterNoisePa * g;
+      double w = filterNoisePa * g + (filtered ? spike : 0);
+      double iSyn = synaptic ? synapticCurrent() : 0;
       for (int r = 0; r < n; r++) {
-        double acc = bias[r] + bdCommand[r] * u + bdNoise[r] * w;
+        double acc = bias[r] + bdCommand[r] * u + bdNoise[r] * w + bdSynaptic[r] * iSyn;
         int row = r * n;
         for (int k = 0; k < n; k++) {
           acc += ad[row + k] * x[k];
@@ -233,6 +302,40 @@ public final class SimulatedRecording {
     this.x = x;
     this.xNext = xn;
     previousCommandMv = uPrev;
+  }
+
+  /** The synaptic current over the coming sample (pA, inward positive); starts new events. */
+  private double synapticCurrent() {
+    if (contamination.nextDouble() < eventProbability) {
+      double amp = synAmplitudePa * (1 + synSpread * (2 * contamination.nextDouble() - 1));
+      synRise += amp;
+      synDecay += amp;
+      synapticEvents++;
+    }
+    double i = synDecay - synRise;
+    synRise *= synRiseFactor;
+    synDecay *= synDecayFactor;
+    return i;
+  }
+
+  /** The spike waveform's value at this sample (mV), firing on an upward threshold crossing. */
+  private double spikeAt(double somaMv) {
+    if (sinceSpike < Integer.MAX_VALUE) {
+      sinceSpike++;
+    }
+    if (somaMv < spikeThresholdMv) {
+      spikeArmed = true;
+    } else if (spikeArmed && sinceSpike >= refractorySamples) {
+      spikeArmed = false;
+      sinceSpike = 0;
+      spikeRise += spikeAmplitudeMv;
+      spikeDecay += spikeAmplitudeMv;
+      spikesFired++;
+    }
+    double v = spikeDecay - spikeRise;
+    spikeRise *= spikeRiseFactor;
+    spikeDecay *= spikeDecayFactor;
+    return v;
   }
 
   private double midpointS(long sampleIndex) {
@@ -252,20 +355,21 @@ public final class SimulatedRecording {
   private void apply() {
     plant.build(values, a, b, c, d);
     zoh.discretise(a, b, sampleIntervalMs, ad, bd);
-    int in = VoltageClampPlant.INPUTS;
+    int in = ClampPlant.INPUTS;
     double leak = values[CellQuantity.LEAK_REVERSAL_MV.ordinal()];
     for (int r = 0; r < n; r++) {
-      bdCommand[r] = bd[r * in + VoltageClampPlant.IN_COMMAND];
-      bdNoise[r] = bd[r * in + VoltageClampPlant.IN_NOISE];
-      bias[r] = bd[r * in + VoltageClampPlant.IN_LEAK] * leak;
+      bdCommand[r] = bd[r * in + ClampPlant.IN_COMMAND];
+      bdNoise[r] = bd[r * in + ClampPlant.IN_NOISE];
+      bdSynaptic[r] = bd[r * in + ClampPlant.IN_SYNAPTIC];
+      bias[r] = bd[r * in + ClampPlant.IN_LEAK] * leak;
     }
-    dCommand = d[VoltageClampPlant.IN_COMMAND];
+    dCommand = d[ClampPlant.IN_COMMAND];
     System.arraycopy(values, 0, applied, 0, values.length);
   }
 
   /** x = −A⁻¹ B u for the holding command: no start-up transient. */
   private void startInSteadyState(double holdingMv) {
-    int in = VoltageClampPlant.INPUTS;
+    int in = ClampPlant.INPUTS;
     RealMatrix am = MatrixUtils.createRealMatrix(n, n);
     RealVector rhs = MatrixUtils.createRealVector(new double[n]);
     double leak = values[CellQuantity.LEAK_REVERSAL_MV.ordinal()];
@@ -275,8 +379,7 @@ public final class SimulatedRecording {
       }
       rhs.setEntry(
           r,
-          -(b[r * in + VoltageClampPlant.IN_COMMAND] * holdingMv
-              + b[r * in + VoltageClampPlant.IN_LEAK] * leak));
+          -(b[r * in + ClampPlant.IN_COMMAND] * holdingMv + b[r * in + ClampPlant.IN_LEAK] * leak));
     }
     RealVector steady = new LUDecomposition(am).getSolver().solve(rhs);
     for (int r = 0; r < n; r++) {

@@ -8,8 +8,9 @@ import java.util.Arrays;
  *
  * <p>States: the cell's nodes ({@link CellCircuit}), then the 4 filter states when a filter is
  * present. Inputs: {@link #IN_COMMAND} the pipette potential Vp (mV), {@link #IN_LEAK} the leak
- * battery E_L (mV), {@link #IN_NOISE} a current-noise source (pA) added to the filter's input.
- * Output: the recorded current (pA, outward positive)
+ * battery E_L (mV), {@link #IN_NOISE} a current-noise source (pA) added to the filter's input,
+ * {@link #IN_SYNAPTIC} a synaptic current into the soma (pA, inward positive). Output: the recorded
+ * current (pA, outward positive)
  *
  * <pre>
  *   Im = (Vp − Vm)/Ra + Vp/Rseal
@@ -18,11 +19,7 @@ import java.util.Arrays;
  * — or, with the filter, the filter's output driven by Im + noise. Without a filter the output has
  * the direct term D on Vp; with it D = 0. Single-threaded; {@link #build} allocates nothing.
  */
-public final class VoltageClampPlant {
-  public static final int IN_COMMAND = 0;
-  public static final int IN_LEAK = 1;
-  public static final int IN_NOISE = 2;
-  public static final int INPUTS = 3;
+public final class VoltageClampPlant implements ClampPlant {
 
   private final CellCircuit cell;
   private final BesselFilter filter;
@@ -35,10 +32,12 @@ public final class VoltageClampPlant {
     this.states = cell.nodes() + (filter == null ? 0 : BesselFilter.ORDER);
   }
 
+  @Override
   public int states() {
     return states;
   }
 
+  @Override
   public boolean filtered() {
     return filter != null;
   }
@@ -47,6 +46,7 @@ public final class VoltageClampPlant {
    * Fills A (states×states), B (states×INPUTS), C (states) and D (INPUTS) for the cell values
    * indexed by {@link CellQuantity#ordinal()}.
    */
+  @Override
   public void build(double[] values, double[] a, double[] b, double[] c, double[] d) {
     Arrays.fill(a, 0, states * states, 0.0);
     Arrays.fill(b, 0, states * INPUTS, 0.0);
@@ -60,6 +60,7 @@ public final class VoltageClampPlant {
     // The clamped pipette drives the soma through Ra.
     a[soma * states + soma] -= ga / cm;
     b[soma * INPUTS + IN_COMMAND] += ga / cm;
+    b[soma * INPUTS + IN_SYNAPTIC] += 1 / cm;
     // Im = −ga·Vm + (ga + gs)·Vp.
     double imFromVm = -ga;
     double imFromVp = ga + gs;

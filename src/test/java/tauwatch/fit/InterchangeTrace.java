@@ -23,6 +23,9 @@ final class InterchangeTrace {
   final double[] cmdMv;
   final double[] imPa;
 
+  /** The clamp mode the header names; in current clamp cmdMv holds pA and imPa holds mV. */
+  tauwatch.stream.ClampMode mode = tauwatch.stream.ClampMode.VOLTAGE_CLAMP;
+
   private InterchangeTrace(String name, double[] t, double[] cmd, double[] im) {
     this.name = name;
     this.tS = t;
@@ -35,10 +38,14 @@ final class InterchangeTrace {
         Objects.requireNonNull(
             InterchangeTrace.class.getResourceAsStream(resource), "missing fixture " + resource);
     List<double[]> rows = new ArrayList<>();
+    tauwatch.stream.ClampMode mode = tauwatch.stream.ClampMode.VOLTAGE_CLAMP;
     try (BufferedReader r = new BufferedReader(new InputStreamReader(in, StandardCharsets.UTF_8))) {
       String header = r.readLine();
-      if (!"t_s,cmd_mV,im_pA".equals(header)) {
-        throw new IOException(resource + ":1: expected header t_s,cmd_mV,im_pA, got " + header);
+      if ("t_s,cmd_pA,vm_mV".equals(header)) {
+        mode = tauwatch.stream.ClampMode.CURRENT_CLAMP;
+      } else if (!"t_s,cmd_mV,im_pA".equals(header)) {
+        throw new IOException(
+            resource + ":1: expected header t_s,cmd_mV,im_pA or t_s,cmd_pA,vm_mV, got " + header);
       }
       String line;
       int lineNo = 1;
@@ -63,7 +70,9 @@ final class InterchangeTrace {
       c[i] = rows.get(i)[1];
       im[i] = rows.get(i)[2];
     }
-    return new InterchangeTrace(resource, t, c, im);
+    InterchangeTrace trace = new InterchangeTrace(resource, t, c, im);
+    trace.mode = mode;
+    return trace;
   }
 
   /**
@@ -105,6 +114,7 @@ final class InterchangeTrace {
       w.stepLevel = cmdMv[onIdx];
       w.filterCutoffHz = filterCutoffHz;
       w.pulseNumber = p + 1;
+      w.mode = mode;
       out.add(w);
     }
     return out;

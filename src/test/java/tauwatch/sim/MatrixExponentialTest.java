@@ -56,7 +56,8 @@ class MatrixExponentialTest {
     VoltageClampPlant plant = new VoltageClampPlant(true, new BesselFilter(10_000));
     int n = plant.states();
     double[] a = new double[n * n];
-    plant.build(values, a, new double[n * 3], new double[n], new double[3]);
+    plant.build(
+        values, a, new double[n * ClampPlant.INPUTS], new double[n], new double[ClampPlant.INPUTS]);
     double h = 0.02; // ms, one sample at 50 kHz
     double[] ah = new double[n * n];
     for (int i = 0; i < n * n; i++) {
