@@ -1,6 +1,8 @@
 package tauwatch.fit;
 
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 import tauwatch.stream.ClampMode;
 
 /**
@@ -25,6 +27,7 @@ public final class PulseEstimate {
   private final long sweepNumber;
   private final double sweepTimeS;
   private final long pulseEndReceivedNanos;
+  private final List<FittedTransient> fittedTransients;
 
   private PulseEstimate(Builder b, String rejectReason) {
     this.pulseNumber = b.pulseNumber;
@@ -39,6 +42,7 @@ public final class PulseEstimate {
     this.sweepNumber = b.sweepNumber;
     this.sweepTimeS = b.sweepTimeS;
     this.pulseEndReceivedNanos = b.pulseEndReceivedNanos;
+    this.fittedTransients = List.copyOf(b.fittedTransients);
   }
 
   public static Builder builder() {
@@ -64,6 +68,7 @@ public final class PulseEstimate {
     b.sweepNumber = sweepNumber;
     b.sweepTimeS = sweepTimeS;
     b.pulseEndReceivedNanos = pulseEndReceivedNanos;
+    b.fittedTransients.addAll(fittedTransients);
     return b;
   }
 
@@ -129,6 +134,14 @@ public final class PulseEstimate {
     return pulseEndReceivedNanos;
   }
 
+  /**
+   * The fitted curves the estimate came from, in time order (on-transient, then off-transient), for
+   * drawing; empty when the estimator kept none or the fit failed before any curve was found.
+   */
+  public List<FittedTransient> fittedTransients() {
+    return fittedTransients;
+  }
+
   @Override
   public String toString() {
     StringBuilder sb = new StringBuilder("PulseEstimate[#").append(pulseNumber);
@@ -156,6 +169,7 @@ public final class PulseEstimate {
     private long sweepNumber = -1;
     private double sweepTimeS = Double.NaN;
     private long pulseEndReceivedNanos;
+    private final List<FittedTransient> fittedTransients = new ArrayList<>(2);
 
     private Builder() {
       Arrays.fill(values, Double.NaN);
@@ -219,6 +233,12 @@ public final class PulseEstimate {
 
     public Builder pulseEndReceivedNanos(long nanos) {
       pulseEndReceivedNanos = nanos;
+      return this;
+    }
+
+    /** Adds a fitted curve (in time order), for drawing. */
+    public Builder fitted(FittedTransient t) {
+      fittedTransients.add(t);
       return this;
     }
 

@@ -115,6 +115,9 @@ public final class VoltageClampEstimator implements PulseEstimator {
 
     Side on = new Side();
     String why = fitSide(w, onset, offset, holdPa, holdVar, stepMv, noisePa, dtMs, on);
+    if (on.curve != null) {
+      b.fitted(on.curve);
+    }
     if (why != null) {
       return "on-transient: " + why;
     }
@@ -131,6 +134,9 @@ public final class VoltageClampEstimator implements PulseEstimator {
       off = new Side();
       double refVar = on.fit.covariance[0][0];
       why = fitSide(w, offset, end, on.steadyPa, refVar, -stepMv, noisePa, dtMs, off);
+      if (off.curve != null) {
+        b.fitted(off.curve);
+      }
       if (why != null) {
         return "off-transient: " + why;
       }
@@ -237,6 +243,7 @@ public final class VoltageClampEstimator implements PulseEstimator {
     final double[][] cx = new double[3][3];
     double tauMs;
     double chargePaMs;
+    FittedTransient curve;
   }
 
   /**
@@ -318,6 +325,15 @@ public final class VoltageClampEstimator implements PulseEstimator {
       }
     }
     double dI0 = amp * g + (r.steadyPa - refPa);
+    s.curve =
+        FittedTransient.mono(
+            (edge - w.onsetIndex) * dtMs,
+            (start - w.onsetIndex) * dtMs,
+            (last - w.onsetIndex) * dtMs,
+            r.steadyPa,
+            amp,
+            tauMs,
+            refPa + dI0);
     double dIss = r.steadyPa - refPa;
     double ra = MOHM_PER_MV_PER_PA * stepMv / dI0;
     double rt = MOHM_PER_MV_PER_PA * stepMv / dIss;
