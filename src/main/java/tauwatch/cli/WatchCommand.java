@@ -3,6 +3,7 @@ package tauwatch.cli;
 import java.awt.GraphicsEnvironment;
 import java.time.Duration;
 import java.util.concurrent.Callable;
+import java.util.concurrent.TimeUnit;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
@@ -10,7 +11,12 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 import tauwatch.monitor.MonitorConfig;
 import tauwatch.monitor.MonitorResult;
+import tauwatch.monitor.PulseEstimators;
+import tauwatch.monitor.live.LiveSession;
+import tauwatch.monitor.live.LiveSessionFactory;
+import tauwatch.monitor.live.SessionControl;
 import tauwatch.source.SampleSource;
+import tauwatch.view.LiveViewLauncher;
 
 /** {@code tauwatch watch}: the live monitor. */
 @Command(
@@ -19,7 +25,8 @@ import tauwatch.source.SampleSource;
     description = {
       "Watches a cell live: finds every test pulse, fits it, prints the estimates with their"
           + " health state, and logs params.csv, events.csv and session.json.",
-      "With no options it watches the built-in simulated cell."
+      "With no options it watches the built-in simulated cell, in a window when a display is"
+          + " present (--headless for the console)."
     })
 final class WatchCommand implements Callable<Integer> {
   @Spec CommandSpec spec;
@@ -62,12 +69,43 @@ final class WatchCommand implements Callable<Integer> {
         session.filterCutoffHz != null ? session.filterCutoffHz : config.filterCutoffHz();
     SampleSource src = SourceOpener.open(source, !noPacing, seed, filterHz);
     if (!headless && !GraphicsEnvironment.isHeadless()) {
-      spec.commandLine()
-          .getErr()
-          .println("watch: the live view is not in this version; watching on the console");
+      return watchInWindow(src, config, filterHz);
     }
     MonitorResult r =
         SessionRunner.run(src, config, session, duration, !quiet, spec.commandLine().getOut());
     return r.complete() ? Main.EXIT_OK : Main.EXIT_BAD_INPUT;
+  }
+
+  /** The live view: runs until the window is closed; later sessions start from its controls. */
+  private int watchInWindow(SampleSource first, MonitorConfig config, double filterHz)
+      throws UserInputException, InterruptedException {
+    LiveSession firstSession = startLive(first, config);
+    LiveSessionFactory factory =
+        uri -> {
+          try {
+            return startLive(SourceOpener.open(uri, !noPacing, seed, filterHz), config);
+          } catch (UserInputException e) {
+            throw new IllegalArgumentException(e.getMessage(), e);
+          }
+        };
+    SessionControl last = LiveViewLauncher.show(factory, firstSession);
+    last.stop();
+    if (last instanceof LiveSession ls && !ls.awaitEnd(15, TimeUnit.SECONDS)) {
+      spec.commandLine().getErr().println("watch: the session did not close its logs in 15 s");
+      return Main.EXIT_BAD_INPUT;
+    }
+    if (last.sessionDir() != null) {
+      spec.commandLine().getOut().println("session folder: " + last.sessionDir());
+    }
+    return Main.EXIT_OK;
+  }
+
+  private LiveSession startLive(SampleSource src, MonitorConfig config) throws UserInputException {
+    try {
+      return LiveSession.start(
+          src, config, PulseEstimators.forFormat(src.format(), config), session.logDir, duration);
+    } catch (IllegalArgumentException e) {
+      throw new UserInputException(src.name() + ": " + e.getMessage());
+    }
   }
 }
