@@ -4,6 +4,7 @@ import java.awt.GraphicsEnvironment;
 import java.time.Duration;
 import java.util.concurrent.Callable;
 import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicReference;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
@@ -80,15 +81,38 @@ final class WatchCommand implements Callable<Integer> {
   private int watchInWindow(SampleSource first, MonitorConfig config, double filterHz)
       throws UserInputException, InterruptedException {
     LiveSession firstSession = startLive(first, config);
+    AtomicReference<LiveSession> current = new AtomicReference<>(firstSession);
     LiveSessionFactory factory =
         uri -> {
           try {
-            return startLive(SourceOpener.open(uri, !noPacing, seed, filterHz), config);
+            LiveSession s = startLive(SourceOpener.open(uri, !noPacing, seed, filterHz), config);
+            current.set(s);
+            return s;
           } catch (UserInputException e) {
             throw new IllegalArgumentException(e.getMessage(), e);
           }
         };
+    // Ctrl-C or a kill while the window is open: end the session so its files close cleanly.
+    Thread hook =
+        new Thread(
+            () -> {
+              LiveSession s = current.get();
+              s.stop();
+              try {
+                s.awaitEnd(10, TimeUnit.SECONDS);
+              } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+              }
+            },
+            "tauwatch-shutdown");
+    Runtime.getRuntime().addShutdownHook(hook);
     SessionControl last = LiveViewLauncher.show(factory, firstSession);
+    try {
+      Runtime.getRuntime().removeShutdownHook(hook);
+    } catch (IllegalStateException shuttingDown) {
+      // The JVM is already exiting and runs the hook itself.
+      return Main.EXIT_OK;
+    }
     last.stop();
     if (last instanceof LiveSession ls && !ls.awaitEnd(15, TimeUnit.SECONDS)) {
       spec.commandLine().getErr().println("watch: the session did not close its logs in 15 s");

@@ -31,6 +31,15 @@ final class TransientPanel extends CanvasPanel {
   private double[] xs = new double[0];
   private double[] ys = new double[0];
   private LiveSnapshot shown = LiveSnapshot.empty();
+  private final PixelRaster raster = new PixelRaster();
+  private static final int PANEL_ARGB = PixelRaster.argb(StateLook.PANEL);
+  private static final int PLOT_ARGB = PixelRaster.argb(StateLook.BACKGROUND);
+  private static final int WINDOW_ARGB =
+      PixelRaster.over(StateLook.FIT.deriveColor(0, 1, 1, 0.10), StateLook.BACKGROUND);
+  private static final int GRID_ARGB = PixelRaster.argb(StateLook.GRID);
+  private static final int TRACE_ARGB = PixelRaster.argb(StateLook.TRACE);
+  private static final int BASE_ARGB =
+      PixelRaster.over(StateLook.BASELINE_TRACE, StateLook.BACKGROUND);
 
   TransientPanel() {
     setId("transient-panel");
@@ -84,29 +93,36 @@ final class TransientPanel extends CanvasPanel {
     Axis ax = new Axis(x0, x1, LEFT, pw);
     Axis ay = new Axis(hi, lo, TOP, ph);
 
-    // Fit windows.
+    // Fit windows, grid and traces as pixels; then text and the fitted curves on top.
+    raster.reset((int) w, (int) h, PANEL_ARGB);
+    int pt = (int) TOP;
+    int pb = (int) (TOP + ph);
+    raster.rect((int) LEFT, pt, (int) (LEFT + pw), pb, PLOT_ARGB);
     if (e != null) {
-      g.setFill(StateLook.FIT_WINDOW);
       for (FittedTransient f : e.fittedTransients()) {
-        double a = ax.px(f.fitStartMs());
-        double b = ax.px(f.fitEndMs());
-        g.fillRect(a, TOP, Math.max(1, b - a), ph);
-        g.setStroke(StateLook.FIT.deriveColor(0, 1, 1, 0.35));
-        g.setLineWidth(1);
-        g.strokeLine(Math.round(a) + 0.5, TOP, Math.round(a) + 0.5, TOP + ph);
-        g.strokeLine(Math.round(b) + 0.5, TOP, Math.round(b) + 0.5, TOP + ph);
+        raster.rect(
+            (int) Math.round(ax.px(f.fitStartMs())),
+            pt,
+            (int) Math.round(ax.px(f.fitEndMs())) + 1,
+            pb,
+            WINDOW_ARGB);
       }
     }
-    grid(g, ax, ay, pw, ph, yUnit);
-
-    if (base != null && base.length() > 1 && base != t) {
-      g.setStroke(StateLook.BASELINE_TRACE);
-      g.setLineWidth(2.5);
-      trace(g, base, ax, ay);
+    double sx = Numbers.niceStep(ax.span(), 8);
+    for (double v = Math.ceil(ax.min() / sx) * sx; v <= ax.max() + 1e-9; v += sx) {
+      raster.span((int) Math.round(ax.px(v)), pt, pb, pt, pb, GRID_ARGB);
     }
-    g.setStroke(StateLook.TRACE);
-    g.setLineWidth(1.2);
-    trace(g, t, ax, ay);
+    double sy = Numbers.niceStep(ay.span(), 5);
+    for (double v = Math.ceil(ay.min() / sy) * sy; v <= ay.max() + 1e-9; v += sy) {
+      int yy = (int) Math.round(ay.px(v));
+      raster.rect((int) LEFT, yy, (int) (LEFT + pw), yy + 1, GRID_ARGB);
+    }
+    if (base != null && base.length() > 1 && base != t) {
+      rasterTrace(base, ax, ay, pt, pb, BASE_ARGB, 1);
+    }
+    rasterTrace(t, ax, ay, pt, pb, TRACE_ARGB, 0);
+    g.drawImage(raster.image(), 0, 0);
+    gridText(g, ax, ay, pw, ph, yUnit);
 
     if (e != null) {
       for (FittedTransient f : e.fittedTransients()) {
@@ -116,27 +132,21 @@ final class TransientPanel extends CanvasPanel {
     title(g, t, e, base != null && base != t, w);
   }
 
-  private void grid(GraphicsContext g, Axis ax, Axis ay, double pw, double ph, String yUnit) {
-    g.setLineWidth(1);
+  private void gridText(GraphicsContext g, Axis ax, Axis ay, double pw, double ph, String yUnit) {
     g.setFont(tickFont);
-    g.setStroke(StateLook.GRID);
     g.setFill(StateLook.AXIS_TEXT);
     double sx = Numbers.niceStep(ax.span(), 8);
     g.setTextAlign(TextAlignment.CENTER);
     g.setTextBaseline(VPos.TOP);
     for (double v = Math.ceil(ax.min() / sx) * sx; v <= ax.max() + 1e-9; v += sx) {
-      double x = Math.round(ax.px(v)) + 0.5;
-      g.strokeLine(x, TOP, x, TOP + ph);
-      g.fillText(Numbers.tick(v, sx), x, TOP + ph + 4);
+      g.fillText(Numbers.tick(v, sx), Math.round(ax.px(v)) + 0.5, TOP + ph + 4);
     }
     g.fillText("ms from step onset", LEFT + pw / 2, TOP + ph + 18);
     double sy = Numbers.niceStep(ay.span(), 5);
     g.setTextAlign(TextAlignment.RIGHT);
     g.setTextBaseline(VPos.CENTER);
     for (double v = Math.ceil(ay.min() / sy) * sy; v <= ay.max() + 1e-9; v += sy) {
-      double y = Math.round(ay.px(v)) + 0.5;
-      g.strokeLine(LEFT, y, LEFT + pw, y);
-      g.fillText(Numbers.tick(v, sy), LEFT - 6, y);
+      g.fillText(Numbers.tick(v, sy), LEFT - 6, Math.round(ay.px(v)) + 0.5);
     }
     g.setTextAlign(TextAlignment.CENTER);
     g.save();
@@ -145,17 +155,35 @@ final class TransientPanel extends CanvasPanel {
     g.fillText(yUnit, 0, 0);
     g.restore();
     g.setStroke(StateLook.AXIS_TEXT);
+    g.setLineWidth(1);
     g.strokeRect(LEFT + 0.5, TOP + 0.5, pw, ph);
   }
 
-  private void trace(GraphicsContext g, PulseTrace t, Axis ax, Axis ay) {
-    int n = t.length();
-    ensure(n);
-    for (int i = 0; i < n; i++) {
-      xs[i] = ax.px(t.timeMs(i));
-      ys[i] = ay.px(t.response(i));
+  /**
+   * The samples as connected vertical spans, one pixel column at a time ({@code thick} extra px).
+   */
+  private void rasterTrace(
+      PulseTrace t, Axis ax, Axis ay, int top, int bottom, int argb, int thick) {
+    int px = (int) Math.round(ax.px(t.timeMs(0)));
+    int py = (int) Math.round(ay.px(t.response(0)));
+    for (int i = 1; i < t.length(); i++) {
+      int x = (int) Math.round(ax.px(t.timeMs(i)));
+      int y = (int) Math.round(ay.px(t.response(i)));
+      if (x == px) {
+        raster.span(x, py, y, top, bottom, argb);
+      } else {
+        int last = py;
+        for (int c = px + 1; c <= x; c++) {
+          int yy = py + (int) Math.round((double) (y - py) * (c - px) / (x - px));
+          for (int k = 0; k <= thick; k++) {
+            raster.span(c + k, last, yy, top, bottom, argb);
+          }
+          last = yy;
+        }
+      }
+      px = x;
+      py = y;
     }
-    g.strokePolyline(xs, ys, n);
   }
 
   private void curve(GraphicsContext g, FittedTransient f, Axis ax, Axis ay) {

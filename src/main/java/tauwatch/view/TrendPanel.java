@@ -37,8 +37,21 @@ final class TrendPanel extends CanvasPanel {
   private HealthCriteria criteria;
   private List<Parameter> rows = List.of();
   private TrendReduction[] reductions = new TrendReduction[0];
-  private double[] xs = new double[0];
-  private double[] ys = new double[0];
+  private final PixelRaster raster = new PixelRaster();
+  private static final int BG = PixelRaster.argb(StateLook.BACKGROUND);
+  private static final int BAND = PixelRaster.over(StateLook.BAND, StateLook.BACKGROUND);
+  private static final int BASE = PixelRaster.argb(StateLook.BASELINE);
+  private static final int LIM = PixelRaster.argb(StateLook.LIMIT);
+  private static final int DATA = PixelRaster.argb(StateLook.TRACE);
+  private static final int REJ = PixelRaster.argb(StateLook.REJECTED);
+  private static final int GRIDC = PixelRaster.argb(StateLook.GRID);
+  private static final int[] STATE = new int[HealthState.values().length];
+
+  static {
+    for (HealthState st : HealthState.values()) {
+      STATE[st.ordinal()] = PixelRaster.argb(StateLook.color(st));
+    }
+  }
 
   /** Visible span in s; NaN = the whole session. */
   private double spanS = Double.NaN;
@@ -131,14 +144,16 @@ final class TrendPanel extends CanvasPanel {
 
   @Override
   protected void draw(GraphicsContext g, double w, double h) {
-    g.setFill(StateLook.PANEL);
-    g.fillRect(0, 0, w, h);
+    int wi = (int) w;
+    int hi = (int) h;
+    raster.reset(wi, hi, PixelRaster.argb(StateLook.PANEL));
     if (history == null || rows.isEmpty()) {
+      g.drawImage(raster.image(), 0, 0);
       return;
     }
     long count = history.rowCount();
-    double pw = Math.max(10, w - LEFT - RIGHT);
-    int cols = (int) pw;
+    int pw = Math.max(10, wi - (int) LEFT - (int) RIGHT);
+    int cols = pw;
     double first = count == 0 ? 0 : history.timeS(history.oldestReadableRow(count));
     double latest = count == 0 ? 60 : history.timeS(count - 1);
     double t1 = Double.isNaN(endS) ? Math.max(latest, first + MIN_SPAN_S) : endS;
@@ -153,24 +168,41 @@ final class TrendPanel extends CanvasPanel {
     lastT1 = t1;
 
     double rowH = (h - TOP - BOTTOM - ROW_GAP * (rows.size() - 1)) / rows.size();
+    timeGrid(t0, t1, pw, hi);
     for (int i = 0; i < rows.size(); i++) {
       TrendReduction r = reductions[i];
       r.reduce(history, rows.get(i), t0, t1, cols);
       double top = TOP + i * (rowH + ROW_GAP);
-      row(g, rows.get(i), r, top, rowH, pw);
+      rasterRow(i, rows.get(i), r, top, rowH, pw);
     }
-    timeAxis(g, t0, t1, pw, h);
+    g.drawImage(raster.image(), 0, 0);
+    for (int i = 0; i < rows.size(); i++) {
+      rowText(g, i, rows.get(i), pw);
+    }
+    timeAxisText(g, t0, t1, pw, h);
     if (count == 0) {
       g.setFill(StateLook.AXIS_TEXT);
       g.setFont(labelFont);
       g.setTextAlign(TextAlignment.CENTER);
       g.setTextBaseline(VPos.CENTER);
-      g.fillText("trends appear with the first pulses", LEFT + pw / 2, h / 2);
+      g.fillText("trends appear with the first pulses", LEFT + pw / 2.0, h / 2);
     }
   }
 
-  private void row(
-      GraphicsContext g, Parameter p, TrendReduction r, double top, double rh, double pw) {
+  /** Vertical range, plot top and height of each row, kept from the raster pass for the text. */
+  private double[] rowLo = new double[0];
+
+  private double[] rowHi = new double[0];
+  private double[] rowTop = new double[0];
+  private double[] rowPlotH = new double[0];
+
+  private void rasterRow(int i, Parameter p, TrendReduction r, double top, double rh, int pw) {
+    if (rowLo.length < rows.size()) {
+      rowLo = new double[rows.size()];
+      rowHi = new double[rows.size()];
+      rowTop = new double[rows.size()];
+      rowPlotH = new double[rows.size()];
+    }
     int cols = r.columns();
     double strip = 10;
     double marks = 9;
@@ -218,117 +250,131 @@ final class TrendPanel extends CanvasPanel {
     double pad = 0.08 * Math.max(hi - lo, Math.abs(hi) * 0.02 + 1e-6);
     lo -= pad;
     hi += pad;
-    final double ylo = lo;
-    final double yhi = hi;
+    rowLo[i] = lo;
+    rowHi[i] = hi;
+    rowTop[i] = plotTop;
+    rowPlotH[i] = plotH;
+    int left = (int) LEFT;
+    int pt = (int) Math.round(plotTop);
+    int pb = (int) Math.round(plotTop + plotH);
+    raster.rect(left, pt, left + pw, pb, BG);
 
-    g.setFill(StateLook.BACKGROUND);
-    g.fillRect(LEFT, plotTop, pw, plotH);
-
-    // Allowed band and baseline, in runs of equal baseline.
-    // Columns between pulses hold no baseline: the one in force carries on through them.
-    int c = 0;
-    while (c < cols) {
-      float b = r.baseline(c);
-      int e = c + 1;
-      while (e < cols && (sameFloat(r.baseline(e), b) || (!r.hasPulses(e) && e - c < cols))) {
-        if (!r.hasPulses(e) && !hasLaterPulse(r, e, cols)) {
-          break;
-        }
-        e++;
+    // Allowed band and baseline; columns between pulses carry the baseline in force.
+    int lastCol = -1;
+    for (int c = 0; c < cols; c++) {
+      if (r.hasPulses(c)) {
+        lastCol = c;
       }
-      if (!Float.isNaN(b)) {
-        double half = allowed(b, pct, abs);
-        double x0 = LEFT + c;
-        double x1 = LEFT + e;
-        if (Double.isFinite(half)) {
-          double y0 = y(b + half, ylo, yhi, plotTop, plotH);
-          double y1 = y(b - half, ylo, yhi, plotTop, plotH);
-          g.setFill(StateLook.BAND);
-          g.fillRect(
-              x0,
-              clamp(y0, plotTop, plotTop + plotH),
-              x1 - x0,
-              clamp(y1, plotTop, plotTop + plotH) - clamp(y0, plotTop, plotTop + plotH));
-        }
-        double yb = y(b, ylo, yhi, plotTop, plotH);
-        if (yb >= plotTop && yb <= plotTop + plotH) {
-          g.setStroke(StateLook.BASELINE);
-          g.setLineWidth(1);
-          g.setLineDashes(2, 3);
-          g.strokeLine(x0, yb, x1, yb);
-          g.setLineDashes((double[]) null);
-        }
+    }
+    float b = Float.NaN;
+    for (int c = 0; c < cols; c++) {
+      if (!Float.isNaN(r.baseline(c))) {
+        b = r.baseline(c);
+      } else if (r.hasPulses(c)) {
+        b = Float.NaN;
       }
-      c = e;
-    }
-
-    // Limits.
-    g.setFont(tickFont);
-    g.setTextBaseline(VPos.BOTTOM);
-    g.setTextAlign(TextAlignment.RIGHT);
-    if (lim != null) {
-      limit(g, lim.max(), "max", ylo, yhi, plotTop, plotH, pw);
-      limit(g, lim.min(), "min", ylo, yhi, plotTop, plotH, pw);
-    }
-
-    // Values: min/max per column as one envelope polyline, broken where a column is empty.
-    ensure(2 * cols);
-    g.setStroke(StateLook.TRACE);
-    g.setLineWidth(1.3);
-    int n = 0;
-    for (int k = 0; k < cols; k++) {
-      float mn = r.min(k);
-      if (Float.isNaN(mn)) {
-        // A column without accepted values only breaks the line when it holds a rejected pulse
-        // or a long stretch is empty; short gaps between pulses stay joined.
-        if (r.rejected(k) > 0 || !joinAcross(r, k, cols)) {
-          n = flush(g, n);
-        }
+      if (Float.isNaN(b) || c > lastCol) {
         continue;
       }
-      double x = LEFT + k + 0.5;
-      xs[n] = x;
-      ys[n++] = y(mn, ylo, yhi, plotTop, plotH);
-      xs[n] = x;
-      ys[n++] = y(r.max(k), ylo, yhi, plotTop, plotH);
+      double half = allowed(b, pct, abs);
+      if (Double.isFinite(half)) {
+        raster.span(
+            left + c,
+            py(b + half, lo, hi, plotTop, plotH),
+            py(b - half, lo, hi, plotTop, plotH),
+            pt,
+            pb,
+            BAND);
+      }
+      if (c % 5 < 2) {
+        raster.span(
+            left + c, py(b, lo, hi, plotTop, plotH), py(b, lo, hi, plotTop, plotH), pt, pb, BASE);
+      }
     }
-    flush(g, n);
-    if (n == 2) {
-      g.setFill(StateLook.TRACE);
-      g.fillOval(xs[0] - 2, ys[0] - 2, 4, 4);
+    if (lim != null) {
+      for (double v : new double[] {lim.max(), lim.min()}) {
+        if (Double.isFinite(v) && v >= lo && v <= hi) {
+          int yy = py(v, lo, hi, plotTop, plotH);
+          raster.dashed(left, left + pw, yy, 8, 4, LIM);
+          raster.dashed(left, left + pw, yy + 1, 8, 4, LIM);
+        }
+      }
     }
 
-    // Rejected pulses: a small cross above the plot.
-    g.setStroke(StateLook.REJECTED);
-    g.setLineWidth(1.2);
+    // Values: per column a span from min to max, joined to the previous column's value unless a
+    // rejected pulse or a silence longer than the no-signal timeout lies between.
+    double joinS = criteria == null ? 5 : criteria.noPulseTimeoutS();
+    double sPerCol = (lastT1 - lastT0) / Math.max(1, cols);
+    int prev = -1;
+    int prevY = 0;
+    int filled = 0;
     for (int k = 0; k < cols; k++) {
       if (r.rejected(k) > 0) {
-        double x = LEFT + k + 0.5;
-        double yc = top + marks / 2;
-        g.strokeLine(x - 3, yc - 3, x + 3, yc + 3);
-        g.strokeLine(x - 3, yc + 3, x + 3, yc - 3);
+        prev = -1;
+        int yc = (int) (top + marks / 2);
+        for (int d = -3; d <= 3; d++) {
+          raster.span(left + k + d, yc + d, yc + d, 0, raster.height(), REJ);
+          raster.span(left + k + d, yc - d, yc - d, 0, raster.height(), REJ);
+        }
       }
-    }
-
-    // Health state along the time axis.
-    double stripTop = plotTop + plotH + 1;
-    for (int k = 0; k < cols; ) {
-      if (!r.hasPulses(k)) {
-        k++;
+      float mn = r.min(k);
+      if (Float.isNaN(mn)) {
         continue;
       }
-      HealthState s = r.worstState(k);
-      int e = k + 1;
-      while (e < cols && r.hasPulses(e) && r.worstState(e) == s) {
-        e++;
+      filled++;
+      int yMin = py(mn, lo, hi, plotTop, plotH);
+      int yMax = py(r.max(k), lo, hi, plotTop, plotH);
+      int yMid = (yMin + yMax) / 2;
+      if (prev >= 0 && (k - prev) * sPerCol <= joinS) {
+        // A straight join across the empty columns between.
+        int last = prevY;
+        for (int x = prev + 1; x < k; x++) {
+          int yy = prevY + (int) Math.round((double) (yMid - prevY) * (x - prev) / (k - prev));
+          raster.span(left + x, last, yy, pt, pb, DATA);
+          last = yy;
+        }
+        raster.span(left + k, Math.min(yMax, last), Math.max(yMin, last), pt, pb, DATA);
+      } else {
+        raster.span(left + k, yMax, yMin, pt, pb, DATA);
       }
-      double sh = StateLook.stripHeight(s);
-      g.setFill(StateLook.color(s));
-      g.fillRect(LEFT + k, stripTop, e - k, sh);
-      k = e;
+      prev = k;
+      prevY = yMid;
+    }
+    if (filled > 0 && filled * 4 < cols) {
+      // Sparse (a short session or a close zoom): mark each pulse too.
+      for (int k = 0; k < cols; k++) {
+        if (!Float.isNaN(r.min(k))) {
+          int yy = py(r.min(k), lo, hi, plotTop, plotH);
+          raster.rect(left + k - 2, yy - 2, left + k + 3, yy + 3, DATA);
+        }
+      }
     }
 
-    // Label and vertical ticks.
+    // Health state along the time axis: colour and height by state.
+    int stripTop = pb + 1;
+    for (int k = 0; k < cols; k++) {
+      if (r.hasPulses(k)) {
+        HealthState st = r.worstState(k);
+        raster.rect(
+            left + k,
+            stripTop,
+            left + k + 1,
+            stripTop + (int) StateLook.stripHeight(st),
+            STATE[st.ordinal()]);
+      }
+    }
+    // Frame.
+    raster.rect(left, pt, left + pw, pt + 1, GRIDC);
+    raster.rect(left, pb - 1, left + pw, pb, GRIDC);
+    raster.rect(left, pt, left + 1, pb, GRIDC);
+    raster.rect(left + pw - 1, pt, left + pw, pb, GRIDC);
+  }
+
+  private void rowText(GraphicsContext g, int i, Parameter p, int pw) {
+    double lo = rowLo[i];
+    double hi = rowHi[i];
+    double plotTop = rowTop[i];
+    double plotH = rowPlotH[i];
     g.setFill(StateLook.TEXT);
     g.setFont(labelFont);
     g.setTextAlign(TextAlignment.LEFT);
@@ -337,27 +383,78 @@ final class TrendPanel extends CanvasPanel {
     g.setFont(tickFont);
     g.setFill(StateLook.AXIS_TEXT);
     g.fillText(p.unit(), 6, plotTop + 18);
-    double step = Numbers.niceStep(yhi - ylo, 3);
+    double step = Numbers.niceStep(hi - lo, 3);
     g.setTextAlign(TextAlignment.RIGHT);
     g.setTextBaseline(VPos.CENTER);
-    g.setStroke(StateLook.GRID);
-    g.setLineWidth(1);
-    for (double v = Math.ceil(ylo / step) * step; v <= yhi; v += step) {
-      double yy = Math.round(y(v, ylo, yhi, plotTop, plotH)) + 0.5;
-      g.strokeLine(LEFT - 4, yy, LEFT, yy);
+    for (double v = Math.ceil(lo / step) * step; v <= hi; v += step) {
+      double yy = py(v, lo, hi, plotTop, plotH);
       g.fillText(Numbers.tick(v, step), LEFT - 6, yy);
     }
-    g.setStroke(StateLook.GRID);
-    g.strokeRect(LEFT + 0.5, plotTop + 0.5, pw - 1, plotH - 1);
+    ParameterLimits lim = criteria == null ? null : criteria.limits().get(p);
+    if (lim != null) {
+      g.setFill(StateLook.LIMIT);
+      g.setTextBaseline(VPos.BOTTOM);
+      limitText(g, lim.max(), "max", lo, hi, plotTop, plotH, pw);
+      limitText(g, lim.min(), "min", lo, hi, plotTop, plotH, pw);
+    }
   }
 
-  private static boolean hasLaterPulse(TrendReduction r, int from, int cols) {
-    for (int k = from; k < cols; k++) {
-      if (r.hasPulses(k)) {
-        return true;
+  private void limitText(
+      GraphicsContext g,
+      double v,
+      String what,
+      double lo,
+      double hi,
+      double top,
+      double ph,
+      int pw) {
+    if (Double.isFinite(v) && v >= lo && v <= hi) {
+      g.fillText(
+          what + " " + Numbers.tick(v, Math.abs(v) >= 10 ? 1 : 0.1),
+          LEFT + pw - 4,
+          py(v, lo, hi, top, ph) - 1);
+    }
+  }
+
+  private static final double[] TIME_STEPS = {
+    1, 2, 5, 10, 15, 30, 60, 120, 300, 600, 900, 1800, 3600, 7200, 14400
+  };
+
+  private static double timeStep(double t0, double t1) {
+    for (double s : TIME_STEPS) {
+      if ((t1 - t0) / s <= 10) {
+        return s;
       }
     }
-    return false;
+    return TIME_STEPS[TIME_STEPS.length - 1];
+  }
+
+  private void timeGrid(double t0, double t1, int pw, int h) {
+    double step = timeStep(t0, t1);
+    int axisY = h - (int) BOTTOM + 2;
+    for (double v = Math.ceil(t0 / step) * step; v <= t1; v += step) {
+      int x = (int) Math.round(LEFT + (v - t0) / (t1 - t0) * pw);
+      raster.span(x, (int) TOP, axisY, 0, h, GRIDC);
+    }
+  }
+
+  private void timeAxisText(GraphicsContext g, double t0, double t1, int pw, double h) {
+    double step = timeStep(t0, t1);
+    g.setFont(tickFont);
+    g.setFill(StateLook.AXIS_TEXT);
+    g.setTextAlign(TextAlignment.CENTER);
+    g.setTextBaseline(VPos.TOP);
+    double axisY = h - BOTTOM + 2;
+    for (double v = Math.ceil(t0 / step) * step; v <= t1; v += step) {
+      double x = Math.round(LEFT + (v - t0) / (t1 - t0) * pw) + 0.5;
+      g.fillText(Numbers.clock(v), x, axisY + 2);
+    }
+    g.setTextAlign(TextAlignment.LEFT);
+    g.fillText("recording time", 6, axisY + 2);
+  }
+
+  private static int py(double v, double lo, double hi, double top, double ph) {
+    return (int) Math.round(top + (hi - v) / (hi - lo) * ph);
   }
 
   /** Smallest vertical span worth showing, so that noise is not blown up to the strip's height. */
@@ -374,77 +471,6 @@ final class TrendPanel extends CanvasPanel {
     return Math.max(floor, 0.05 * Math.abs(mid));
   }
 
-  /** Whether an empty column lies between two filled columns within 12 px (pulse spacing). */
-  private static boolean joinAcross(TrendReduction r, int k, int cols) {
-    int before = k - 1;
-    while (before >= 0 && k - before <= 12 && Float.isNaN(r.min(before))) {
-      before--;
-    }
-    int after = k + 1;
-    while (after < cols && after - k <= 12 && Float.isNaN(r.min(after))) {
-      after++;
-    }
-    return before >= 0
-        && after < cols
-        && k - before <= 12
-        && after - k <= 12
-        && !Float.isNaN(r.min(before))
-        && !Float.isNaN(r.min(after));
-  }
-
-  private int flush(GraphicsContext g, int n) {
-    if (n >= 2) {
-      g.strokePolyline(xs, ys, n);
-    }
-    return 0;
-  }
-
-  private void limit(
-      GraphicsContext g,
-      double v,
-      String what,
-      double lo,
-      double hi,
-      double top,
-      double ph,
-      double pw) {
-    if (!Double.isFinite(v) || v < lo || v > hi) {
-      return;
-    }
-    double yy = Math.round(y(v, lo, hi, top, ph)) + 0.5;
-    g.setStroke(StateLook.LIMIT);
-    g.setLineWidth(1.4);
-    g.setLineDashes(8, 4);
-    g.strokeLine(LEFT, yy, LEFT + pw, yy);
-    g.setLineDashes((double[]) null);
-    g.setFill(StateLook.LIMIT);
-    g.fillText(what + " " + Numbers.tick(v, Math.abs(v) >= 10 ? 1 : 0.1), LEFT + pw - 4, yy - 1);
-  }
-
-  private void timeAxis(GraphicsContext g, double t0, double t1, double pw, double h) {
-    double[] steps = {1, 2, 5, 10, 15, 30, 60, 120, 300, 600, 900, 1800, 3600, 7200, 14400};
-    double step = steps[steps.length - 1];
-    for (double s : steps) {
-      if ((t1 - t0) / s <= 10) {
-        step = s;
-        break;
-      }
-    }
-    g.setFont(tickFont);
-    g.setFill(StateLook.AXIS_TEXT);
-    g.setStroke(StateLook.GRID);
-    g.setTextAlign(TextAlignment.CENTER);
-    g.setTextBaseline(VPos.TOP);
-    double axisY = h - BOTTOM + 2;
-    for (double v = Math.ceil(t0 / step) * step; v <= t1; v += step) {
-      double x = Math.round(LEFT + (v - t0) / (t1 - t0) * pw) + 0.5;
-      g.strokeLine(x, TOP, x, axisY);
-      g.fillText(Numbers.clock(v), x, axisY + 2);
-    }
-    g.setTextAlign(TextAlignment.LEFT);
-    g.fillText("recording time", 6, axisY + 2);
-  }
-
   private static double allowed(double b, double pct, double abs) {
     double half = Double.NaN;
     if (Double.isFinite(pct)) {
@@ -454,24 +480,5 @@ final class TrendPanel extends CanvasPanel {
       half = Double.isNaN(half) ? abs : Math.min(half, abs);
     }
     return half;
-  }
-
-  private static double y(double v, double lo, double hi, double top, double ph) {
-    return top + (hi - v) / (hi - lo) * ph;
-  }
-
-  private static double clamp(double v, double a, double b) {
-    return Math.max(a, Math.min(b, v));
-  }
-
-  private static boolean sameFloat(float a, float b) {
-    return a == b || (Float.isNaN(a) && Float.isNaN(b));
-  }
-
-  private void ensure(int n) {
-    if (xs.length < n) {
-      xs = new double[n];
-      ys = new double[n];
-    }
   }
 }

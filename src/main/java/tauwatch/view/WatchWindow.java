@@ -249,7 +249,13 @@ public final class WatchWindow {
     if (h == null) {
       word = "waiting for pulses";
     } else if (!h.baselineSet()) {
-      word = o.label() + " · learning baseline (" + h.baselinePulses() + " pulses)";
+      word =
+          o.label()
+              + " · baseline "
+              + h.baselinePulses()
+              + "/"
+              + model.criteria().baselinePulses()
+              + " pulses";
     } else {
       word = "cell " + o.label();
     }

@@ -46,6 +46,15 @@ final class ScriptedSession implements SessionControl, AutoCloseable {
 
   /** One pulse every 0.5 s with the given access resistance; other values fixed. */
   HealthSnapshot pulse(double raMOhm, boolean accepted) {
+    return pulse(raMOhm, accepted, true);
+  }
+
+  /** As {@link #pulse}, without the samples (to fill hours of trend quickly). */
+  HealthSnapshot pulseFast(double raMOhm, boolean accepted) {
+    return pulse(raMOhm, accepted, false);
+  }
+
+  private HealthSnapshot pulse(double raMOhm, boolean accepted, boolean withTrace) {
     pulse++;
     double t = 0.5 * pulse;
     clock.advanceTo(t);
@@ -67,7 +76,11 @@ final class ScriptedSession implements SessionControl, AutoCloseable {
     }
     PulseEstimate e = b.build();
     HealthSnapshot h = health.onEstimate(e);
-    model.onPulseEstimate(window(raMOhm), e, h);
+    if (withTrace) {
+      model.onPulseEstimate(window(raMOhm), e, h);
+    } else {
+      model.onEstimate(e, h);
+    }
     return h;
   }
 
