@@ -68,4 +68,34 @@ class LiveSessionTest {
     SourceStatus st = SourceStatus.read(src.name(), 50_000, s.counters(), null);
     assertEquals(s.result().samples(), st.samples());
   }
+
+  @Test
+  void theRaCreepScenarioBreachesAccessResistanceAndRaisesAnAlarm(@TempDir Path logDir)
+      throws Exception {
+    // ra-creep: Ra 10 MΩ until 120 s, then linearly to 20 MΩ at 480 s (simulator/ra-creep.toml).
+    // The default rule (20 % change from baseline, common practice) is crossed at 12 MΩ, ≈ 192 s.
+    MonitorConfig config = MonitorConfig.defaults();
+    SimulatedSource src =
+        new SimulatedSource(new SimulatedRecording(ScenarioLoader.load("ra-creep")), false);
+    LiveSession s =
+        LiveSession.start(
+            src,
+            config,
+            PulseEstimators.forFormat(src.format(), config),
+            logDir,
+            Duration.ofSeconds(215));
+    assertTrue(s.awaitEnd(120, TimeUnit.SECONDS));
+    assertNull(s.failure());
+    LiveSnapshot snap = s.model().snapshot();
+    assertEquals(
+        tauwatch.health.HealthState.BREACH, snap.health().state(Parameter.ACCESS_RESISTANCE));
+    assertTrue(snap.health().parameters().get(Parameter.ACCESS_RESISTANCE).alarmPending());
+    assertEquals(1, snap.alarmHistory().size(), snap.alarmHistory().toString());
+    double breachS = snap.alarmHistory().get(0).streamTimeS();
+    assertTrue(breachS > 180 && breachS < 205, "breach at " + breachS + " s");
+    TrendHistory h = s.model().trends();
+    assertEquals(
+        tauwatch.health.HealthState.BREACH.ordinal(),
+        h.stateOrdinal(h.rowCount() - 1, Parameter.ACCESS_RESISTANCE));
+  }
 }
