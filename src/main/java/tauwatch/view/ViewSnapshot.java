@@ -70,6 +70,7 @@ public final class ViewSnapshot {
             w.transientPanel().markDirty();
             w.trendPanel().markDirty();
             w.refresh(System.nanoTime() + 1_000_000_000L);
+            w.refresh(System.nanoTime() + 2_000_000_000L);
             shot.complete(scene.snapshot(null));
           } catch (RuntimeException e) {
             shot.completeExceptionally(e);

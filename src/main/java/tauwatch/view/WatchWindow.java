@@ -110,6 +110,7 @@ public final class WatchWindow {
   private SourceStatus lastStatus;
   private long lastStatusNanos;
   private Boolean shownRunning;
+  private boolean transientFirst = true;
   private final AnimationTimer pump =
       new AnimationTimer() {
         @Override
@@ -211,8 +212,15 @@ public final class WatchWindow {
         alarmList.getItems().setAll(lines(shownAlarms, false));
       }
     }
-    transientPanel.drawIfDirty();
-    trendPanel.drawIfDirty();
+    // At most one canvas per frame, alternating: a new pulse dirties both, and drawing them in
+    // two frames keeps each frame's software render within the frame period.
+    boolean drew = transientFirst ? transientPanel.drawIfDirty() : trendPanel.drawIfDirty();
+    if (!drew) {
+      drew = transientFirst ? trendPanel.drawIfDirty() : transientPanel.drawIfDirty();
+    }
+    if (drew) {
+      transientFirst = !transientFirst;
+    }
     if (lastStatus == null || nowNanos - lastStatusNanos >= STATUS_PERIOD_NS) {
       lastStatusNanos = nowNanos;
       boolean running = control != null && control.running();
