@@ -116,6 +116,9 @@ public final class VoltageClampEstimator implements PulseEstimator {
 
     Side on = new Side();
     String why = fitSide(w, onset, offset, holdPa, holdVar, stepMv, noise, dtMs, window, null, on);
+    if (on.curve != null) {
+      b.fitted(on.curve);
+    }
     if (why != null) {
       return "on-transient: " + why;
     }
@@ -132,6 +135,9 @@ public final class VoltageClampEstimator implements PulseEstimator {
       off = new Side();
       why =
           fitSide(w, offset, end, on.steadyPa, on.steadyVar, -stepMv, noise, dtMs, window, on, off);
+      if (off.curve != null) {
+        b.fitted(off.curve);
+      }
       if (why != null) {
         return "off-transient: " + why;
       }
@@ -252,6 +258,7 @@ public final class VoltageClampEstimator implements PulseEstimator {
     double chargePaMs;
     double rssPa2;
     int samples;
+    FittedTransient curve;
   }
 
   /**
@@ -392,6 +399,15 @@ public final class VoltageClampEstimator implements PulseEstimator {
     }
     cu[5][5] = refVar;
     double[] x = biDerived(u, stepMv);
+    s.curve =
+        new FittedTransient(
+            (edge - w.onsetIndex) * dtMs,
+            (start - w.onsetIndex) * dtMs,
+            (last - w.onsetIndex) * dtMs,
+            p[BiExponentialFit.ISS],
+            new double[] {p[BiExponentialFit.A1], p[BiExponentialFit.A2]},
+            new double[] {p[BiExponentialFit.T1], p[BiExponentialFit.T2]},
+            refPa + MOHM_PER_MV_PER_PA * stepMv / x[0]);
     // Delta method with a central-difference Jacobian of the derived values.
     double[][] jac = new double[x.length][6];
     for (int j = 0; j < 6; j++) {
@@ -609,6 +625,15 @@ public final class VoltageClampEstimator implements PulseEstimator {
     double dg = gain[1];
     double delayMs = filter.groupDelayS() * 1e3;
     double dI0 = amp * g + (r.steadyPa - refPa);
+    s.curve =
+        FittedTransient.mono(
+            (edge - w.onsetIndex) * dtMs,
+            (start - w.onsetIndex) * dtMs,
+            (last - w.onsetIndex) * dtMs,
+            r.steadyPa,
+            amp,
+            tauMs,
+            refPa + dI0);
     double dIss = r.steadyPa - refPa;
     double ra = MOHM_PER_MV_PER_PA * stepMv / dI0;
     double rt = MOHM_PER_MV_PER_PA * stepMv / dIss;

@@ -91,7 +91,7 @@ final class PulseAnalysis implements PulseListener {
     }
     latest = e;
     for (EstimateListener l : listeners) {
-      l.onEstimate(e, h);
+      l.onPulseEstimate(window, e, h);
     }
   }
 
