@@ -103,16 +103,6 @@ public final class VoltageClampEstimator implements PulseEstimator {
     BaselineNoise noise =
         BaselineNoise.of(w.response, nPre - nb, onset)
             .atLeast(filter.noiseVarianceInflation(w.sampleIntervalS));
-    if (Boolean.getBoolean("dbg"))
-      System.out.println(
-          "DBG "
-              + noise.varianceInflation()
-              + " "
-              + filter.noiseVarianceInflation(w.sampleIntervalS)
-              + " "
-              + noise.sd()
-              + " "
-              + noise.samples());
     double holdPa = noise.mean();
     double holdSe = noise.meanStandardError();
     double holdVar = holdSe * holdSe;
