@@ -152,9 +152,20 @@ public final class VoltageClampEstimator implements PulseEstimator {
         System.arraycopy(on.cx[i], 0, c[i], 0, k);
       }
     } else {
+      // The off-transient is measured from the on-transient's steady current (u index 0), which
+      // enters its Jacobian in the last column (the reference level).
+      double[][] cross = OnOffCombination.cross(on.jac, on.cu, 0, off.jac, off.cu.length - 1);
       int bad =
           OnOffCombination.combine(
-              on.x, on.cx, off.x, off.cx, options.onOffTolerance(), options.onOffSigmas(), x, c);
+              on.x,
+              on.cx,
+              off.x,
+              off.cx,
+              cross,
+              options.onOffTolerance(),
+              options.onOffSigmas(),
+              x,
+              c);
       if (bad >= 0) {
         String[] names = on.bi ? BI_NAMES : SIDE_NAMES;
         return "on/off transients disagree on "
@@ -208,6 +219,22 @@ public final class VoltageClampEstimator implements PulseEstimator {
     int n = on.samples + (off == null ? 0 : off.samples);
     b.rmsResidual(Math.sqrt(rss / n));
 
+    // The holding current's standard error from the noise of the baseline and both fits' residuals
+    // (ResidualNoise): the baseline's own few rows estimate their noise too roughly for a 95 %
+    // interval to cover 95 %.
+    ResidualNoise pool = new ResidualNoise();
+    pool.add(w.response, nPre - nb, onset, onset, dtMs, holdPa, NONE, NONE, 1);
+    on.addResidualTo(pool, w.response, dtMs);
+    if (off != null) {
+      off.addResidualTo(pool, w.response, dtMs);
+    }
+    double poolInflation =
+        Math.max(pool.varianceInflation(), filter.noiseVarianceInflation(w.sampleIntervalS));
+    double pooledHoldSe = pool.sd() * Math.sqrt(poolInflation / nb);
+    if (Double.isFinite(pooledHoldSe)) {
+      b.value(Parameter.HOLDING_CURRENT, holdPa, pooledHoldSe);
+    }
+
     if (!Double.isFinite(ra) || !Double.isFinite(rt) || !Double.isFinite(cm)) {
       return "fit gave non-finite values";
     }
@@ -254,11 +281,29 @@ public final class VoltageClampEstimator implements PulseEstimator {
     double steadyVar;
     double[] x;
     double[][] cx;
+
+    /** Jacobian of x over u = (I_ss, fit parameters…, I_ref), and u's covariance. */
+    double[][] jac;
+
+    double[][] cu;
     double slowestTauMs;
     double chargePaMs;
     double rssPa2;
     int samples;
     FittedTransient curve;
+
+    /** The fitted model over rows fitFrom..fitTo, times from the edge row. */
+    int edge;
+
+    int fitFrom;
+    int fitTo;
+    double fitOffset;
+    double[] fitAmps;
+    double[] fitTaus;
+
+    void addResidualTo(ResidualNoise pool, double[] y, double dtMs) {
+      pool.add(y, fitFrom, fitTo, edge, dtMs, fitOffset, fitAmps, fitTaus, 1 + 2 * fitAmps.length);
+    }
   }
 
   /**
@@ -423,12 +468,20 @@ public final class VoltageClampEstimator implements PulseEstimator {
       }
     }
     s.x = x;
+    s.jac = jac;
+    s.cu = cu;
     s.cx = OnOffCombination.propagate(jac, cu);
     s.steadyPa = p[0];
     s.steadyVar = bi.covariance[0][0] * inflation;
     s.slowestTauMs = p[BiExponentialFit.T2];
     s.rssPa2 = bi.rssPa2;
     s.samples = bi.samples;
+    s.edge = edge;
+    s.fitFrom = start;
+    s.fitTo = last;
+    s.fitOffset = p[BiExponentialFit.ISS];
+    s.fitAmps = new double[] {p[BiExponentialFit.A1], p[BiExponentialFit.A2]};
+    s.fitTaus = new double[] {p[BiExponentialFit.T1], p[BiExponentialFit.T2]};
     return null;
   }
 
@@ -655,10 +708,18 @@ public final class VoltageClampEstimator implements PulseEstimator {
       }
     }
     cu[3][3] = refVar;
+    s.jac = grad;
+    s.cu = cu;
     s.cx = OnOffCombination.propagate(grad, cu);
     s.chargePaMs = charge(w.response, edge, last, r, dtMs, delayMs, dIss);
     s.rssPa2 = r.rssPa2;
     s.samples = r.samples;
+    s.edge = edge;
+    s.fitFrom = start;
+    s.fitTo = last;
+    s.fitOffset = r.steadyPa;
+    s.fitAmps = new double[] {amp};
+    s.fitTaus = new double[] {tauMs};
     return null;
   }
 
