@@ -1,6 +1,5 @@
 package tauwatch.fit;
 
-import java.util.Locale;
 import tauwatch.pulse.PulseWindow;
 import tauwatch.stream.ClampMode;
 
@@ -32,10 +31,14 @@ public final class CurrentClampEstimator implements PulseEstimator {
   private static final String[] NAMES = {"Rt", "Rin", "tau"};
 
   private final EstimatorOptions options;
+  private final PulsePreamble preamble;
+
+  /** The amplifier filter of the pulse being fitted (from the preamble). */
   private BesselFilterModel filter = new BesselFilterModel(0);
 
   public CurrentClampEstimator(EstimatorOptions options) {
     this.options = options;
+    this.preamble = new PulsePreamble(options);
   }
 
   public CurrentClampEstimator() {
@@ -48,15 +51,7 @@ public final class CurrentClampEstimator implements PulseEstimator {
 
   @Override
   public PulseEstimate estimate(PulseWindow w) {
-    PulseEstimate.Builder b =
-        PulseEstimate.builder()
-            .pulseNumber(w.pulseNumber)
-            .onsetTimeS(w.onsetTimeS())
-            .mode(w.mode)
-            .stepAmplitude(w.stepAmplitude())
-            .sweep(w.sweepNumber, w.sweepTimeS)
-            .pulseEndReceivedNanos(w.lastSampleReceivedNanos)
-            .model("mono");
+    PulseEstimate.Builder b = PulseEstimate.builderFor(w).model("mono");
     String problem = fill(w, b);
     if (problem != null) {
       b.reject(problem);
@@ -65,54 +60,25 @@ public final class CurrentClampEstimator implements PulseEstimator {
   }
 
   private String fill(PulseWindow w, PulseEstimate.Builder b) {
-    if (w.mode != ClampMode.CURRENT_CLAMP) {
-      return "not a current-clamp pulse";
+    String unusable = preamble.prepare(w, ClampMode.CURRENT_CLAMP, options.minStepPa(), "pA");
+    if (unusable != null) {
+      return unusable;
     }
-    if (w.spansGap) {
-      return "window spans a gap in the stream";
-    }
+    filter = preamble.filter();
     double stepPa = w.stepAmplitude();
-    if (!Double.isFinite(stepPa) || Math.abs(stepPa) < options.minStepPa()) {
-      return "step of " + fmt(stepPa) + " pA is below " + fmt(options.minStepPa()) + " pA";
-    }
     int onset = w.onsetIndex;
     int offset = w.offsetIndex;
     int end = w.length - 1;
-    if (onset + 1 < options.minBaselineSamples() || end >= w.capacity() || offset <= onset) {
-      return "window too short for a baseline";
-    }
-    if (!(w.sampleIntervalS > 0)) {
-      return "sample interval is not positive";
-    }
-    for (int i = 0; i <= end; i++) {
-      if (!Double.isFinite(w.response[i])) {
-        return "response has a non-finite sample at row " + i;
-      }
-    }
-    double dtMs = w.sampleIntervalS * 1e3;
-    int window = Math.max(1, (int) Math.round(options.excursionWindowMs() / dtMs));
-
-    int nPre = onset + 1;
-    int nb =
-        Math.min(
-            nPre,
-            Math.max(options.minBaselineSamples(), (int) (options.baselineFraction() * nPre)));
-    double cutoffHz =
-        options.filterCutoffHz() > 0
-            ? options.filterCutoffHz()
-            : options.filterCutoffHz() < 0 ? 0 : Math.max(0, w.filterCutoffHz);
-    if (filter.cutoffHz() != cutoffHz) {
-      filter = new BesselFilterModel(cutoffHz);
-    }
-    BaselineNoise noise =
-        BaselineNoise.of(w.response, nPre - nb, onset)
-            .atLeast(filter.noiseVarianceInflation(w.sampleIntervalS));
+    double dtMs = preamble.dtMs;
+    int window = preamble.excursionWindow;
+    int baselineFrom = preamble.baselineFrom;
+    BaselineNoise noise = preamble.noise;
     double vrest = noise.mean();
     double vrestSe = noise.meanStandardError();
     b.value(Parameter.RESTING_POTENTIAL, vrest, vrestSe);
     double baseExcursion =
         ResidualExcursion.sigmas(
-            w.response, nPre - nb, onset, onset, dtMs, vrest, NONE, NONE, noise, window, 0);
+            w.response, baselineFrom, onset, onset, dtMs, vrest, NONE, NONE, noise, window, 0);
     if (baseExcursion > options.maxExcursionSigmas()) {
       return "baseline carries an event (" + fmt(baseExcursion) + " sd)";
     }
@@ -333,6 +299,6 @@ public final class CurrentClampEstimator implements PulseEstimator {
   }
 
   private static String fmt(double v) {
-    return String.format(Locale.ROOT, "%.3g", v);
+    return PulsePreamble.fmt(v);
   }
 }

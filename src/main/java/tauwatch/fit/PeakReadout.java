@@ -15,15 +15,7 @@ import tauwatch.stream.ClampMode;
 public final class PeakReadout implements PulseEstimator {
   @Override
   public PulseEstimate estimate(PulseWindow w) {
-    PulseEstimate.Builder b =
-        PulseEstimate.builder()
-            .pulseNumber(w.pulseNumber)
-            .onsetTimeS(w.onsetTimeS())
-            .mode(w.mode)
-            .stepAmplitude(w.stepAmplitude())
-            .sweep(w.sweepNumber, w.sweepTimeS)
-            .pulseEndReceivedNanos(w.lastSampleReceivedNanos)
-            .model("peak");
+    PulseEstimate.Builder b = PulseEstimate.builderFor(w).model("peak");
     int onset = w.onsetIndex;
     int offset = w.offsetIndex;
     double stepMv = w.stepAmplitude();

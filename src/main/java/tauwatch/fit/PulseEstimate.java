@@ -51,6 +51,17 @@ public final class PulseEstimate {
     return new Builder();
   }
 
+  /** A builder carrying a window's identity: pulse number, onset, mode, step and sweep. */
+  public static Builder builderFor(tauwatch.pulse.PulseWindow w) {
+    return new Builder()
+        .pulseNumber(w.pulseNumber)
+        .onsetTimeS(w.onsetTimeS())
+        .mode(w.mode)
+        .stepAmplitude(w.stepAmplitude())
+        .sweep(w.sweepNumber, w.sweepTimeS)
+        .pulseEndReceivedNanos(w.lastSampleReceivedNanos);
+  }
+
   /** A copy of this estimate marked rejected with the given reason. */
   public PulseEstimate rejected(String reason) {
     return toBuilder().reject(reason).build();

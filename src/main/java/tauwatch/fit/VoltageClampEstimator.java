@@ -25,10 +25,14 @@ public final class VoltageClampEstimator implements PulseEstimator {
   private static final double MOHM_PER_MV_PER_PA = 1000;
 
   private final EstimatorOptions options;
+  private final PulsePreamble preamble;
+
+  /** The amplifier filter of the pulse being fitted (from the preamble). */
   private BesselFilterModel filter = new BesselFilterModel(0);
 
   public VoltageClampEstimator(EstimatorOptions options) {
     this.options = options;
+    this.preamble = new PulsePreamble(options);
   }
 
   public VoltageClampEstimator() {
@@ -41,15 +45,7 @@ public final class VoltageClampEstimator implements PulseEstimator {
 
   @Override
   public PulseEstimate estimate(PulseWindow w) {
-    PulseEstimate.Builder b =
-        PulseEstimate.builder()
-            .pulseNumber(w.pulseNumber)
-            .onsetTimeS(w.onsetTimeS())
-            .mode(w.mode)
-            .stepAmplitude(w.stepAmplitude())
-            .sweep(w.sweepNumber, w.sweepTimeS)
-            .pulseEndReceivedNanos(w.lastSampleReceivedNanos)
-            .model("mono");
+    PulseEstimate.Builder b = PulseEstimate.builderFor(w).model("mono");
     String problem = fill(w, b);
     if (problem != null) {
       b.reject(problem);
@@ -59,57 +55,26 @@ public final class VoltageClampEstimator implements PulseEstimator {
 
   /** Fills {@code b} and returns why the pulse must be rejected, or null. */
   private String fill(PulseWindow w, PulseEstimate.Builder b) {
-    if (w.mode != ClampMode.VOLTAGE_CLAMP) {
-      return "not a voltage-clamp pulse";
+    String unusable = preamble.prepare(w, ClampMode.VOLTAGE_CLAMP, options.minStepMv(), "mV");
+    if (unusable != null) {
+      return unusable;
     }
-    if (w.spansGap) {
-      return "window spans a gap in the stream";
-    }
+    filter = preamble.filter();
     double stepMv = w.stepAmplitude();
-    if (!Double.isFinite(stepMv) || Math.abs(stepMv) < options.minStepMv()) {
-      return "step of " + fmt(stepMv) + " mV is below " + fmt(options.minStepMv()) + " mV";
-    }
     int onset = w.onsetIndex;
     int offset = w.offsetIndex;
     int end = w.length - 1;
-    if (onset + 1 < options.minBaselineSamples() || end >= w.capacity() || offset <= onset) {
-      return "window too short for a baseline";
-    }
-    if (!(w.sampleIntervalS > 0)) {
-      return "sample interval is not positive";
-    }
-    for (int i = 0; i <= end; i++) {
-      if (!Double.isFinite(w.response[i])) {
-        return "response has a non-finite sample at row " + i;
-      }
-    }
-    double dtMs = w.sampleIntervalS * 1e3;
-    int window = Math.max(1, (int) Math.round(options.excursionWindowMs() / dtMs));
-
-    // Baseline: the latest rows up to and including the onset row, which is still sampled before
-    // the step acts (interchange timing contract).
-    int nPre = onset + 1;
-    int nb =
-        Math.min(
-            nPre,
-            Math.max(options.minBaselineSamples(), (int) (options.baselineFraction() * nPre)));
-    double cutoffHz =
-        options.filterCutoffHz() > 0
-            ? options.filterCutoffHz()
-            : options.filterCutoffHz() < 0 ? 0 : Math.max(0, w.filterCutoffHz);
-    if (filter.cutoffHz() != cutoffHz) {
-      filter = new BesselFilterModel(cutoffHz);
-    }
-    BaselineNoise noise =
-        BaselineNoise.of(w.response, nPre - nb, onset)
-            .atLeast(filter.noiseVarianceInflation(w.sampleIntervalS));
+    double dtMs = preamble.dtMs;
+    int window = preamble.excursionWindow;
+    int baselineFrom = preamble.baselineFrom;
+    BaselineNoise noise = preamble.noise;
     double holdPa = noise.mean();
     double holdSe = noise.meanStandardError();
     double holdVar = holdSe * holdSe;
     b.value(Parameter.HOLDING_CURRENT, holdPa, holdSe);
     double baseExcursion =
         ResidualExcursion.sigmas(
-            w.response, nPre - nb, onset, onset, dtMs, holdPa, NONE, NONE, noise, window, 0);
+            w.response, baselineFrom, onset, onset, dtMs, holdPa, NONE, NONE, noise, window, 0);
     if (baseExcursion > options.maxExcursionSigmas()) {
       return "baseline carries an event (" + fmt(baseExcursion) + " sd)";
     }
@@ -223,14 +188,14 @@ public final class VoltageClampEstimator implements PulseEstimator {
     // (ResidualNoise): the baseline's own few rows estimate their noise too roughly for a 95 %
     // interval to cover 95 %.
     ResidualNoise pool = new ResidualNoise();
-    pool.add(w.response, nPre - nb, onset, onset, dtMs, holdPa, NONE, NONE, 1);
+    pool.add(w.response, baselineFrom, onset, onset, dtMs, holdPa, NONE, NONE, 1);
     on.addResidualTo(pool, w.response, dtMs);
     if (off != null) {
       off.addResidualTo(pool, w.response, dtMs);
     }
     double poolInflation =
         Math.max(pool.varianceInflation(), filter.noiseVarianceInflation(w.sampleIntervalS));
-    double pooledHoldSe = pool.sd() * Math.sqrt(poolInflation / nb);
+    double pooledHoldSe = pool.sd() * Math.sqrt(poolInflation / (onset + 1 - baselineFrom));
     if (Double.isFinite(pooledHoldSe)) {
       b.value(Parameter.HOLDING_CURRENT, holdPa, pooledHoldSe);
     }
@@ -894,6 +859,6 @@ public final class VoltageClampEstimator implements PulseEstimator {
   }
 
   private static String fmt(double v) {
-    return String.format(java.util.Locale.ROOT, "%.3g", v);
+    return PulsePreamble.fmt(v);
   }
 }
