@@ -20,6 +20,7 @@ import javafx.scene.control.SplitPane;
 import javafx.scene.control.TextField;
 import javafx.scene.control.ToggleButton;
 import javafx.scene.control.ToggleGroup;
+import javafx.scene.control.Tooltip;
 import javafx.scene.layout.BorderPane;
 import javafx.scene.layout.HBox;
 import javafx.scene.layout.Priority;
@@ -200,7 +201,7 @@ public final class WatchWindow {
             h == null ? null : h.parameters().get(t.parameter()), s.lastAccepted(), latestRejected);
       }
       showOverall(h, s);
-      banner.show(h, s.alarmHistory());
+      banner.show(h);
       transientPanel.show(s);
       trendPanel.markDirty();
       if (s.recentEvents() != shownEvents) {
@@ -242,6 +243,10 @@ public final class WatchWindow {
         logging.setDisable(!running && factory == null);
         baseline.setDisable(!running);
         addMark.setDisable(!running);
+        addMark.setTooltip(
+            running ? null : new Tooltip("marks go to the session's event log: start logging"));
+        markNote.setPromptText(
+            running ? "note for the event log, e.g. drug on" : "logging stopped: no log to mark");
       }
     }
   }
@@ -420,9 +425,19 @@ public final class WatchWindow {
       message.setText("type a note first");
       return;
     }
-    control.mark(note);
-    markNote.clear();
-    message.setText("mark added");
+    switch (control.mark(note)) {
+      case LOGGED:
+        markNote.clear();
+        message.setText("mark added");
+        break;
+      case QUEUED:
+        markNote.clear();
+        message.setText("mark kept; it is written as soon as the session's log opens");
+        break;
+      default:
+        message.setText("logging is stopped: start logging to add the mark (the note is kept)");
+        break;
+    }
   }
 
   private void toggleLogging() {

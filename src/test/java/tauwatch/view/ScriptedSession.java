@@ -9,6 +9,7 @@ import tauwatch.fit.PulseEstimate;
 import tauwatch.health.HealthCriteria;
 import tauwatch.health.HealthMonitor;
 import tauwatch.health.HealthSnapshot;
+import tauwatch.monitor.MarkOutcome;
 import tauwatch.monitor.live.LiveModel;
 import tauwatch.monitor.live.SessionControl;
 import tauwatch.pulse.PulseWindow;
@@ -127,8 +128,12 @@ final class ScriptedSession implements SessionControl, AutoCloseable {
   }
 
   @Override
-  public void mark(String note) {
+  public MarkOutcome mark(String note) {
+    if (!running) {
+      return MarkOutcome.SESSION_ENDED;
+    }
     events.onEvent(clock.eventNow(EventKind.MARK, note));
+    return MarkOutcome.LOGGED;
   }
 
   @Override

@@ -9,6 +9,7 @@ import tauwatch.fit.Parameter;
 import tauwatch.fit.PulseEstimator;
 import tauwatch.health.HealthMonitor;
 import tauwatch.health.HealthSnapshot;
+import tauwatch.monitor.MarkOutcome;
 import tauwatch.monitor.Monitor;
 import tauwatch.monitor.MonitorConfig;
 import tauwatch.monitor.MonitorResult;
@@ -110,8 +111,8 @@ public final class LiveSession implements SessionControl {
   }
 
   @Override
-  public void mark(String note) {
-    monitor.mark(note);
+  public MarkOutcome mark(String note) {
+    return monitor.mark(note);
   }
 
   @Override
