@@ -38,6 +38,8 @@ final class TransientPanel extends CanvasPanel {
       PixelRaster.over(StateLook.FIT.deriveColor(0, 1, 1, 0.10), StateLook.BACKGROUND);
   private static final int GRID_ARGB = PixelRaster.argb(StateLook.GRID);
   private static final int TRACE_ARGB = PixelRaster.argb(StateLook.TRACE);
+  private static final int AVERAGE_ARGB = PixelRaster.argb(StateLook.AVERAGE_TRACE);
+  private boolean showAverage;
   private static final int BASE_ARGB =
       PixelRaster.over(StateLook.BASELINE_TRACE, StateLook.BACKGROUND);
 
@@ -45,8 +47,22 @@ final class TransientPanel extends CanvasPanel {
     setId("transient-panel");
   }
 
+  /** Whether the mean of the latest accepted pulses is drawn over the latest pulse. */
+  void setShowAverage(boolean on) {
+    if (on != showAverage) {
+      showAverage = on;
+      markDirty();
+    }
+  }
+
+  boolean showsAverage() {
+    return showAverage;
+  }
+
   void show(LiveSnapshot s) {
-    if (s.trace() != shown.trace() || s.latest() != shown.latest()) {
+    if (s.trace() != shown.trace()
+        || s.latest() != shown.latest()
+        || s.averageTrace() != shown.averageTrace()) {
       markDirty();
     }
     shown = s;
@@ -76,6 +92,11 @@ final class TransientPanel extends CanvasPanel {
     if (base != null && base.length() > 1) {
       lo = Math.min(lo, base.responseMin());
       hi = Math.max(hi, base.responseMax());
+    }
+    PulseTrace mean = showAverage ? shown.averageTrace() : null;
+    if (mean != null && mean.length() > 1) {
+      lo = Math.min(lo, mean.responseMin());
+      hi = Math.max(hi, mean.responseMax());
     }
     if (e != null) {
       for (FittedTransient f : e.fittedTransients()) {
@@ -121,6 +142,9 @@ final class TransientPanel extends CanvasPanel {
       rasterTrace(base, ax, ay, pt, pb, BASE_ARGB, 1);
     }
     rasterTrace(t, ax, ay, pt, pb, TRACE_ARGB, 0);
+    if (mean != null && mean.length() > 1) {
+      rasterTrace(mean, ax, ay, pt, pb, AVERAGE_ARGB, 1);
+    }
     g.drawImage(raster.image(), 0, 0);
     gridText(g, ax, ay, pw, ph, yUnit);
 
@@ -129,7 +153,7 @@ final class TransientPanel extends CanvasPanel {
         curve(g, f, ax, ay);
       }
     }
-    title(g, t, e, base != null && base != t, w);
+    title(g, t, e, base != null && base != t, mean == null ? 0 : shown.averagePulses(), w);
   }
 
   private void gridText(GraphicsContext g, Axis ax, Axis ay, double pw, double ph, String yUnit) {
@@ -217,7 +241,8 @@ final class TransientPanel extends CanvasPanel {
     g.strokePolyline(xs, ys, n + 1);
   }
 
-  private void title(GraphicsContext g, PulseTrace t, PulseEstimate e, boolean withBase, double w) {
+  private void title(
+      GraphicsContext g, PulseTrace t, PulseEstimate e, boolean withBase, int averaged, double w) {
     g.setFont(titleFont);
     g.setTextAlign(TextAlignment.LEFT);
     g.setTextBaseline(VPos.TOP);
@@ -245,7 +270,8 @@ final class TransientPanel extends CanvasPanel {
     } else {
       g.setFill(StateLook.AXIS_TEXT);
       g.fillText(
-          (withBase ? "grey: baseline pulse · " : "")
+          (averaged > 0 ? "cyan: mean of last " + averaged + " accepted · " : "")
+              + (withBase ? "grey: baseline pulse · " : "")
               + "amber: fit, shaded: fitted samples, ring: value at the edge",
           x,
           5);
