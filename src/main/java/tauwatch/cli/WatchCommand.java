@@ -92,7 +92,9 @@ final class WatchCommand implements Callable<Integer> {
         SourceOpener.open(uri, !noPacing, seed, filterHz, profile, capture);
     SampleSource src = opened.source();
     if (!headless && !GraphicsEnvironment.isHeadless()) {
-      return watchInWindow(src, config, filterHz);
+      try (opened) {
+        return watchInWindow(opened, config, filterHz);
+      }
     }
     MonitorResult r;
     try (opened) {
@@ -117,7 +119,7 @@ final class WatchCommand implements Callable<Integer> {
   }
 
   /** The live view: runs until the window is closed; later sessions start from its controls. */
-  private int watchInWindow(SampleSource first, MonitorConfig config, double filterHz)
+  private int watchInWindow(SourceOpener.Opened first, MonitorConfig config, double filterHz)
       throws UserInputException, InterruptedException {
     WindowSessions sessions =
         new WindowSessions(config, !noPacing, seed, filterHz, session.logDir, duration);

@@ -45,18 +45,28 @@ final class WindowSessions implements LiveSessionFactory {
     try {
       // A profile describes a device stream; the simulator and files carry their own format.
       String p = isDevice(sourceUri) ? blankToNull(profile) : null;
-      return startOn(SourceOpener.open(sourceUri, paced, seed, filterHz, p, null).source());
+      return startOn(SourceOpener.open(sourceUri, paced, seed, filterHz, p, null));
     } catch (UserInputException e) {
       throw new IllegalArgumentException(e.getMessage(), e);
     }
   }
 
-  /** Starts a session on an opened source. */
-  LiveSession startOn(SampleSource src) throws UserInputException {
+  /** Starts a session on an opened source; its device profile goes into session.json. */
+  LiveSession startOn(SourceOpener.Opened opened) throws UserInputException {
+    SampleSource src = opened.source();
     try {
       LiveSession s =
           LiveSession.start(
-              src, config, PulseEstimators.forFormat(src.format(), config), logDir, duration);
+              src,
+              config,
+              PulseEstimators.forFormat(src.format(), config),
+              logDir,
+              duration,
+              m -> {
+                if (opened.profile() != null) {
+                  m.sessionField("device_profile", opened.profileField());
+                }
+              });
       current.set(s);
       return s;
     } catch (IllegalArgumentException e) {

@@ -208,6 +208,11 @@ public final class WatchWindow {
     }
   }
 
+  /** The model shown, or null before {@link #bind}. */
+  public LiveModel model() {
+    return model;
+  }
+
   public SessionControl control() {
     return control;
   }
