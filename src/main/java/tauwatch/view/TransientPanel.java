@@ -55,6 +55,12 @@ final class TransientPanel extends CanvasPanel {
     }
   }
 
+  /** The response axis' unit for the trace on show: pA in voltage clamp, mV in current clamp. */
+  String yUnit() {
+    PulseTrace t = shown.trace();
+    return t != null && t.mode() == ClampMode.CURRENT_CLAMP ? "mV" : "pA";
+  }
+
   boolean showsAverage() {
     return showAverage;
   }
@@ -82,8 +88,7 @@ final class TransientPanel extends CanvasPanel {
       g.fillText("Latest test pulse — waiting for the first pulse", LEFT, 6);
       return;
     }
-    boolean cc = t.mode() == ClampMode.CURRENT_CLAMP;
-    String yUnit = cc ? "mV" : "pA";
+    String yUnit = yUnit();
     double x0 = t.startMs();
     double x1 = t.endMs();
     double lo = t.responseMin();

@@ -163,7 +163,7 @@ public final class WatchWindow {
   /** How "Profile file…" asks the user for a file (a path, or null when cancelled). */
   public void setProfileFileChooser(Supplier<String> chooser) {
     profileFileChooser = chooser;
-    profileFile.setDisable(chooser == null);
+    profileFile.setDisable(chooser == null || !isDeviceUri(sourceBox.getEditor().getText()));
   }
 
   public Parent root() {
@@ -363,7 +363,11 @@ public final class WatchWindow {
     sourceBox
         .getEditor()
         .textProperty()
-        .addListener((o, was, now) -> profileBox.setDisable(!isDeviceUri(now)));
+        .addListener(
+            (o, was, now) -> {
+              profileBox.setDisable(!isDeviceUri(now));
+              profileFile.setDisable(!isDeviceUri(now) || profileFileChooser == null);
+            });
     logging.setId("logging");
     logging.setOnAction(e -> toggleLogging());
     baseline.setId("baseline-now");
@@ -387,7 +391,8 @@ public final class WatchWindow {
     message.setId("message");
     Label src = new Label("Source");
     Label prof = new Label("Profile");
-    HBox bar =
+    // Two rows, so that every control keeps its full label at 1280 px and up.
+    HBox source =
         new HBox(
             8,
             src,
@@ -398,15 +403,18 @@ public final class WatchWindow {
             switchSource,
             sep(),
             logging,
-            baseline,
-            sep(),
-            markNote,
-            addMark,
-            sep(),
-            openFolder,
-            sound,
-            message);
-    bar.setAlignment(Pos.CENTER_LEFT);
+            openFolder);
+    source.setAlignment(Pos.CENTER_LEFT);
+    HBox actions = new HBox(8, baseline, sep(), markNote, addMark, sep(), sound, message);
+    actions.setAlignment(Pos.CENTER_LEFT);
+    for (HBox row : new HBox[] {source, actions}) {
+      for (var n : row.getChildren()) {
+        if (n instanceof Region r && n != message && !(n instanceof TextField)) {
+          r.setMinWidth(Region.USE_PREF_SIZE);
+        }
+      }
+    }
+    VBox bar = new VBox(4, source, actions);
     bar.getStyleClass().add("controls");
     return bar;
   }
