@@ -35,7 +35,7 @@ final class TransientPanel extends CanvasPanel {
   private static final int PANEL_ARGB = PixelRaster.argb(StateLook.PANEL);
   private static final int PLOT_ARGB = PixelRaster.argb(StateLook.BACKGROUND);
   private static final int WINDOW_ARGB =
-      PixelRaster.over(StateLook.FIT.deriveColor(0, 1, 1, 0.10), StateLook.BACKGROUND);
+      PixelRaster.over(StateLook.FIT.deriveColor(0, 1, 1, 0.06), StateLook.BACKGROUND);
   private static final int GRID_ARGB = PixelRaster.argb(StateLook.GRID);
   private static final int TRACE_ARGB = PixelRaster.argb(StateLook.TRACE);
   private static final int AVERAGE_ARGB = PixelRaster.argb(StateLook.AVERAGE_TRACE);
@@ -158,7 +158,7 @@ final class TransientPanel extends CanvasPanel {
         curve(g, f, ax, ay);
       }
     }
-    title(g, t, e, base != null && base != t, mean == null ? 0 : shown.averagePulses(), w);
+    title(g, t, e, base != null && base != t, mean == null ? 0 : shown.averagePulses(), w, h);
   }
 
   private void gridText(GraphicsContext g, Axis ax, Axis ay, double pw, double ph, String yUnit) {
@@ -170,7 +170,8 @@ final class TransientPanel extends CanvasPanel {
     for (double v = Math.ceil(ax.min() / sx) * sx; v <= ax.max() + 1e-9; v += sx) {
       g.fillText(Numbers.tick(v, sx), Math.round(ax.px(v)) + 0.5, TOP + ph + 4);
     }
-    g.fillText("ms from step onset", LEFT + pw / 2, TOP + ph + 18);
+    g.setTextAlign(TextAlignment.RIGHT);
+    g.fillText("ms from step onset", LEFT + pw, TOP + ph + 18);
     double sy = Numbers.niceStep(ay.span(), 5);
     g.setTextAlign(TextAlignment.RIGHT);
     g.setTextBaseline(VPos.CENTER);
@@ -247,7 +248,13 @@ final class TransientPanel extends CanvasPanel {
   }
 
   private void title(
-      GraphicsContext g, PulseTrace t, PulseEstimate e, boolean withBase, int averaged, double w) {
+      GraphicsContext g,
+      PulseTrace t,
+      PulseEstimate e,
+      boolean withBase,
+      int averaged,
+      double w,
+      double h) {
     g.setFont(titleFont);
     g.setTextAlign(TextAlignment.LEFT);
     g.setTextBaseline(VPos.TOP);
@@ -267,19 +274,21 @@ final class TransientPanel extends CanvasPanel {
       }
     }
     g.fillText(sb.toString(), LEFT, 5);
-    g.setTextAlign(TextAlignment.RIGHT);
-    double x = w - RIGHT;
     if (e != null && !e.accepted()) {
+      g.setTextAlign(TextAlignment.RIGHT);
       g.setFill(StateLook.REJECTED);
-      g.fillText("rejected: " + e.rejectReason(), x, 5);
+      g.fillText("rejected: " + e.rejectReason(), w - RIGHT, 5);
     } else {
+      // The legend sits under the plot, left of the axis label, so it never runs into the title.
+      g.setFont(tickFont);
+      g.setTextAlign(TextAlignment.LEFT);
       g.setFill(StateLook.AXIS_TEXT);
       g.fillText(
           (averaged > 0 ? "cyan: mean of last " + averaged + " accepted · " : "")
               + (withBase ? "grey: baseline pulse · " : "")
               + "amber: fit, shaded: fitted samples, ring: value at the edge",
-          x,
-          5);
+          LEFT,
+          h - 16);
     }
   }
 

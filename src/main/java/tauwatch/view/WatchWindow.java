@@ -567,6 +567,11 @@ public final class WatchWindow {
     }
   }
 
+  /** Turns the transient's average overlay on or off, as its check box does. */
+  void showAverage(boolean on) {
+    average.setSelected(on);
+  }
+
   // For tests: the parts a user looks at.
 
   ReadoutTile tile(Parameter p) {
