@@ -282,6 +282,10 @@ public final class WatchWindow {
             running ? null : new Tooltip("marks go to the session's event log: start logging"));
         markNote.setPromptText(
             running ? "note for the event log, e.g. drug on" : "logging stopped: no log to mark");
+        if (!running && control instanceof LiveSession ls && ls.failure() != null) {
+          // A session that failed (e.g. before its logs opened) says why instead of just stopping.
+          message.setText("session ended: " + ls.failure().getMessage());
+        }
       }
     }
   }
