@@ -5,7 +5,6 @@ import java.nio.file.Path;
 import java.time.Duration;
 import java.util.concurrent.Callable;
 import java.util.concurrent.TimeUnit;
-import java.util.concurrent.atomic.AtomicReference;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
@@ -13,9 +12,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 import tauwatch.monitor.MonitorConfig;
 import tauwatch.monitor.MonitorResult;
-import tauwatch.monitor.PulseEstimators;
 import tauwatch.monitor.live.LiveSession;
-import tauwatch.monitor.live.LiveSessionFactory;
 import tauwatch.monitor.live.SessionControl;
 import tauwatch.source.SampleSource;
 import tauwatch.view.LiveViewLauncher;
@@ -95,7 +92,9 @@ final class WatchCommand implements Callable<Integer> {
         SourceOpener.open(uri, !noPacing, seed, filterHz, profile, capture);
     SampleSource src = opened.source();
     if (!headless && !GraphicsEnvironment.isHeadless()) {
-      return watchInWindow(src, config, filterHz);
+      try (opened) {
+        return watchInWindow(opened, config, filterHz);
+      }
     }
     MonitorResult r;
     try (opened) {
@@ -120,25 +119,16 @@ final class WatchCommand implements Callable<Integer> {
   }
 
   /** The live view: runs until the window is closed; later sessions start from its controls. */
-  private int watchInWindow(SampleSource first, MonitorConfig config, double filterHz)
+  private int watchInWindow(SourceOpener.Opened first, MonitorConfig config, double filterHz)
       throws UserInputException, InterruptedException {
-    LiveSession firstSession = startLive(first, config);
-    AtomicReference<LiveSession> current = new AtomicReference<>(firstSession);
-    LiveSessionFactory factory =
-        uri -> {
-          try {
-            LiveSession s = startLive(SourceOpener.open(uri, !noPacing, seed, filterHz), config);
-            current.set(s);
-            return s;
-          } catch (UserInputException e) {
-            throw new IllegalArgumentException(e.getMessage(), e);
-          }
-        };
+    WindowSessions sessions =
+        new WindowSessions(config, !noPacing, seed, filterHz, session.logDir, duration);
+    LiveSession firstSession = sessions.startOn(first);
     // Ctrl-C or a kill while the window is open: end the session so its files close cleanly.
     Thread hook =
         new Thread(
             () -> {
-              LiveSession s = current.get();
+              LiveSession s = sessions.current();
               s.stop();
               try {
                 s.awaitEnd(10, TimeUnit.SECONDS);
@@ -148,7 +138,7 @@ final class WatchCommand implements Callable<Integer> {
             },
             "tauwatch-shutdown");
     Runtime.getRuntime().addShutdownHook(hook);
-    SessionControl last = LiveViewLauncher.show(factory, firstSession);
+    SessionControl last = LiveViewLauncher.show(sessions, firstSession, profile);
     try {
       Runtime.getRuntime().removeShutdownHook(hook);
     } catch (IllegalStateException shuttingDown) {
@@ -164,14 +154,5 @@ final class WatchCommand implements Callable<Integer> {
       spec.commandLine().getOut().println("session folder: " + last.sessionDir());
     }
     return Main.EXIT_OK;
-  }
-
-  private LiveSession startLive(SampleSource src, MonitorConfig config) throws UserInputException {
-    try {
-      return LiveSession.start(
-          src, config, PulseEstimators.forFormat(src.format(), config), session.logDir, duration);
-    } catch (IllegalArgumentException e) {
-      throw new UserInputException(src.name() + ": " + e.getMessage());
-    }
   }
 }

@@ -30,6 +30,12 @@ public final class CurrentClampEstimator implements PulseEstimator {
 
   private static final String[] NAMES = {"Rt", "Rin", "tau"};
 
+  /** Starts the estimate's note when Ra is left out because the bridge is balanced. */
+  public static final String BRIDGE_BALANCED_NOTE = "bridge balanced";
+
+  /** Starts the estimate's note when Ra is left out because the bridge is over-balanced. */
+  public static final String BRIDGE_OVER_BALANCED_NOTE = "bridge over-balanced";
+
   private final EstimatorOptions options;
   private final PulsePreamble preamble;
 
@@ -101,6 +107,10 @@ public final class CurrentClampEstimator implements PulseEstimator {
         return "off-transient: " + why;
       }
     }
+    b.fitted(on.curve);
+    if (off != null) {
+      b.fitted(off.curve);
+    }
     double[] x = new double[3];
     double[][] c = new double[3][3];
     if (off == null) {
@@ -145,13 +155,14 @@ public final class CurrentClampEstimator implements PulseEstimator {
     b.value(Parameter.MEMBRANE_CAPACITANCE, cm, cmSe);
     if (Math.abs(ra) < Math.max(options.bridgeBalancedMOhm(), 3 * raSe)) {
       b.note(
-          "bridge balanced: no I·Ra jump, Ra not measured ("
+          BRIDGE_BALANCED_NOTE
+              + ": no I·Ra jump, Ra not measured ("
               + fmt(ra)
               + " ± "
               + fmt(raSe)
               + " MΩ)");
     } else if (ra < 0) {
-      b.note("bridge over-balanced by " + fmt(-ra) + " MΩ: Ra not measured");
+      b.note(BRIDGE_OVER_BALANCED_NOTE + " by " + fmt(-ra) + " MΩ: Ra not measured");
     } else {
       b.value(Parameter.ACCESS_RESISTANCE, ra, raSe);
       b.note("unbalanced bridge: Ra from the I·Ra jump");
@@ -197,6 +208,8 @@ public final class CurrentClampEstimator implements PulseEstimator {
 
     /** Jacobian of x over u = (V_ss, A, τ, V_ref), and u's covariance. */
     double[][] jac;
+
+    FittedTransient curve;
 
     double[][] cu;
   }
@@ -276,6 +289,16 @@ public final class CurrentClampEstimator implements PulseEstimator {
     double rin = -k * amp * g;
     s.steady = r.steadyPa;
     s.tauMs = tauMs;
+    // For drawing: the level at the edge after undoing the filter is V_ss + A·g = V_ref + ΔI·Ra.
+    s.curve =
+        FittedTransient.mono(
+            (edge - w.onsetIndex) * dtMs,
+            (start - w.onsetIndex) * dtMs,
+            (last - w.onsetIndex) * dtMs,
+            r.steadyPa,
+            amp,
+            tauMs,
+            r.steadyPa + amp * g);
     s.x[0] = rt;
     s.x[1] = rin;
     s.x[2] = tauMs;

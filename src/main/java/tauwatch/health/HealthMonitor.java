@@ -5,6 +5,7 @@ import java.util.EnumMap;
 import java.util.Map;
 import java.util.concurrent.atomic.AtomicBoolean;
 import java.util.concurrent.atomic.AtomicInteger;
+import java.util.concurrent.atomic.AtomicReferenceArray;
 import tauwatch.event.EventKind;
 import tauwatch.event.EventSink;
 import tauwatch.event.StreamClock;
@@ -29,6 +30,10 @@ public final class HealthMonitor {
   private final Parameter[] judged;
   private final AtomicBoolean baselineRequested = new AtomicBoolean();
   private final AtomicInteger pendingAlarms = new AtomicInteger();
+  // The latest alarm raised per parameter (by ordinal); shown while its pending bit is set. Written
+  // on the analysis thread before the bit is set, read by whichever thread builds a snapshot.
+  private final AtomicReferenceArray<AlarmRecord> raised =
+      new AtomicReferenceArray<>(Parameter.values().length);
   private final double[] lastValue;
   private final WeightedRunningAverage average;
 
@@ -218,6 +223,8 @@ public final class HealthMonitor {
                 + (rule.isEmpty() ? "" : " (" + rule + ")")));
     if (to == HealthState.BREACH) {
       int bit = 1 << p.ordinal();
+      double change = Double.isNaN(b) || b == 0 ? Double.NaN : 100 * (v - b) / Math.abs(b);
+      raised.set(p.ordinal(), new AlarmRecord(p, lastPulseNumber, t, v, b, change, rule));
       pendingAlarms.getAndUpdate(m -> m | bit);
       events.onEvent(
           clock.event(
@@ -251,6 +258,7 @@ public final class HealthMonitor {
       double v = lastValue[p.ordinal()];
       double b = baseline.isSet() ? baseline.value(p) : Double.NaN;
       double change = Double.isNaN(b) || b == 0 ? Double.NaN : 100 * (v - b) / Math.abs(b);
+      boolean pending = (alarms & (1 << p.ordinal())) != 0;
       m.put(
           p,
           new ParameterStatus(
@@ -260,7 +268,8 @@ public final class HealthMonitor {
               b,
               change,
               Double.isNaN(v) ? "" : j.ruleText(v, b),
-              (alarms & (1 << p.ordinal())) != 0));
+              pending,
+              pending ? raised.get(p.ordinal()) : null));
       overall = HealthState.worse(overall, j.state());
     }
     Map<Parameter, ParameterStatus> view = Collections.unmodifiableMap(m);

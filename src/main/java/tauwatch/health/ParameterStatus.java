@@ -14,6 +14,7 @@ import tauwatch.fit.Parameter;
  * @param changePercent change from baseline in percent, NaN without baseline
  * @param rule the rule closest to being crossed (or crossed), human-readable, empty if none
  * @param alarmPending a breach alarm raised and not yet acknowledged
+ * @param alarm the pending alarm as raised, or null when none is pending
  */
 public record ParameterStatus(
     Parameter parameter,
@@ -22,4 +23,18 @@ public record ParameterStatus(
     double baseline,
     double changePercent,
     String rule,
-    boolean alarmPending) {}
+    boolean alarmPending,
+    AlarmRecord alarm) {
+
+  /** A status without a pending alarm's record. */
+  public ParameterStatus(
+      Parameter parameter,
+      HealthState state,
+      double value,
+      double baseline,
+      double changePercent,
+      String rule,
+      boolean alarmPending) {
+    this(parameter, state, value, baseline, changePercent, rule, alarmPending, null);
+  }
+}

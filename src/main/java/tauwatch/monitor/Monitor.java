@@ -53,6 +53,9 @@ public final class Monitor {
   private volatile HealthMonitor health;
   private volatile SampleRing ring;
   private volatile EventLog eventLog;
+  private volatile boolean ended;
+  private final java.util.concurrent.ConcurrentLinkedQueue<String> earlyMarks =
+      new java.util.concurrent.ConcurrentLinkedQueue<>();
   private volatile StreamClock clock;
   private volatile Path sessionDir;
 
@@ -90,6 +93,15 @@ public final class Monitor {
    *     session is marked failed)
    */
   public MonitorResult run(Duration duration) throws IOException, InterruptedException {
+    try {
+      return runLogged(duration);
+    } finally {
+      ended = true;
+      earlyMarks.clear();
+    }
+  }
+
+  private MonitorResult runLogged(Duration duration) throws IOException, InterruptedException {
     StreamFormat format = source.format();
     Instant start = Instant.now();
     Path dir = SessionFolder.create(logDir, start, source.name());
@@ -136,6 +148,7 @@ public final class Monitor {
                   format.filterCutoffHz() > 0
                       ? String.format("%.0f Hz", format.filterCutoffHz())
                       : "none")));
+      writeEarlyMarks();
 
       long maxSamples =
           duration == null
@@ -164,6 +177,7 @@ public final class Monitor {
       } else {
         status = "complete";
       }
+      ended = true;
       events.onEvent(
           streamClock.event(
               streamClock.latestStreamTimeS(),
@@ -221,12 +235,35 @@ public final class Monitor {
     source.stop();
   }
 
-  /** Writes a user's mark to the event log. Any thread; ignored before the session starts. */
-  public void mark(String note) {
+  /**
+   * Writes a user's mark to the event log. Any thread. Before the log opens the mark is queued and
+   * written (with a note saying so) as the log opens; after the session ended it is refused.
+   */
+  public MarkOutcome mark(String note) {
+    if (ended) {
+      return MarkOutcome.SESSION_ENDED;
+    }
     EventLog log = eventLog;
     StreamClock c = clock;
     if (log != null && c != null) {
       log.onEvent(c.eventNow(EventKind.MARK, note));
+      return MarkOutcome.LOGGED;
+    }
+    earlyMarks.add(note);
+    // The log may have opened between the check and the add: drain here too (each mark is polled
+    // once, so none is written twice).
+    if (eventLog != null) {
+      writeEarlyMarks();
+      return MarkOutcome.LOGGED;
+    }
+    return MarkOutcome.QUEUED;
+  }
+
+  private void writeEarlyMarks() {
+    EventLog log = eventLog;
+    StreamClock c = clock;
+    for (String note = earlyMarks.poll(); note != null; note = earlyMarks.poll()) {
+      log.onEvent(c.eventNow(EventKind.MARK, note + " (typed before the log opened)"));
     }
   }
 

@@ -1,7 +1,6 @@
 package tauwatch.view;
 
 import java.util.EnumSet;
-import java.util.List;
 import java.util.Locale;
 import java.util.function.Consumer;
 import javafx.geometry.Insets;
@@ -11,9 +10,8 @@ import javafx.scene.control.Label;
 import javafx.scene.layout.HBox;
 import javafx.scene.layout.Priority;
 import javafx.scene.layout.VBox;
-import tauwatch.event.EventKind;
-import tauwatch.event.MonitorEvent;
 import tauwatch.fit.Parameter;
+import tauwatch.health.AlarmRecord;
 import tauwatch.health.HealthSnapshot;
 import tauwatch.health.HealthState;
 import tauwatch.health.ParameterStatus;
@@ -30,7 +28,6 @@ final class AlarmBanner extends VBox {
   private final AlarmTone tone;
   private EnumSet<Parameter> pending = EnumSet.noneOf(Parameter.class);
   private boolean soundOn;
-  private List<MonitorEvent> history = List.of();
 
   AlarmBanner(Consumer<Parameter> acknowledge, AlarmTone tone) {
     this.acknowledge = acknowledge;
@@ -48,11 +45,9 @@ final class AlarmBanner extends VBox {
   }
 
   /**
-   * @param h the latest health (its pending alarms)
-   * @param alarmHistory the session's alarm events, oldest first: the text of each alarm as raised
+   * @param h the latest health: its pending alarms, each with its record as raised
    */
-  void show(HealthSnapshot h, List<MonitorEvent> alarmHistory) {
-    this.history = alarmHistory;
+  void show(HealthSnapshot h) {
     EnumSet<Parameter> now = EnumSet.noneOf(Parameter.class);
     if (h != null) {
       for (ParameterStatus s : h.parameters().values()) {
@@ -112,34 +107,38 @@ final class AlarmBanner extends VBox {
   }
 
   /** The alarm as raised (value and rule at the breach), then the value now. */
-  private String text(HealthSnapshot h, Parameter p) {
+  static String text(HealthSnapshot h, Parameter p) {
     ParameterStatus s = h.parameters().get(p);
-    String raised = null;
-    String prefix = p.description() + " breach";
-    for (int i = history.size() - 1; i >= 0; i--) {
-      MonitorEvent e = history.get(i);
-      if (e.kind() == EventKind.ALARM && e.detail().startsWith(prefix)) {
-        raised = String.format(Locale.ROOT, "%s at %s", e.detail(), Numbers.clock(e.streamTimeS()));
-        break;
+    AlarmRecord a = s == null ? null : s.alarm();
+    StringBuilder sb =
+        new StringBuilder("ALARM  ").append(capital(p.description())).append(" breach");
+    if (a != null) {
+      sb.append(": ")
+          .append(p.symbol())
+          .append(' ')
+          .append(Numbers.value(p, a.value()))
+          .append(' ')
+          .append(p.unit());
+      if (!a.rule().isEmpty()) {
+        sb.append(", rule ").append(a.rule());
       }
+      if (Double.isFinite(a.streamTimeS())) {
+        sb.append(" at ").append(Numbers.clock(a.streamTimeS()));
+      }
+    } else if (s != null && !s.rule().isEmpty()) {
+      sb.append(", rule ").append(s.rule());
     }
-    if (raised == null) {
-      raised =
-          p.description()
-              + " breach"
-              + (s == null || s.rule().isEmpty() ? "" : ", rule " + s.rule());
+    if (s != null) {
+      sb.append(
+          String.format(
+              Locale.ROOT,
+              " · now %s %s %s, %s",
+              p.symbol(),
+              Numbers.value(p, s.value()),
+              p.unit(),
+              s.state().label()));
     }
-    String now =
-        s == null
-            ? ""
-            : String.format(
-                Locale.ROOT,
-                " · now %s %s %s, %s",
-                p.symbol(),
-                Numbers.value(p, s.value()),
-                p.unit(),
-                s.state().label());
-    return "ALARM  " + capital(raised) + now;
+    return sb.toString();
   }
 
   private static String capital(String s) {

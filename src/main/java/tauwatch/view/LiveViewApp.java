@@ -21,6 +21,16 @@ public final class LiveViewApp extends Application {
     LiveViewLauncher.Request r = LiveViewLauncher.request();
     LiveSessionFactory factory = r.factory();
     window = new WatchWindow(factory, this::showFolder);
+    window.chooseProfile(r.profile());
+    window.setProfileFileChooser(
+        () -> {
+          javafx.stage.FileChooser fc = new javafx.stage.FileChooser();
+          fc.setTitle("Device profile");
+          fc.getExtensionFilters()
+              .add(new javafx.stage.FileChooser.ExtensionFilter("Device profile", "*.toml"));
+          java.io.File f = fc.showOpenDialog(stage);
+          return f == null ? null : f.getPath();
+        });
     LiveSession first = r.firstSession();
     window.bind(first, first.model());
     Scene scene = new Scene(window.root(), 1600, 1000);

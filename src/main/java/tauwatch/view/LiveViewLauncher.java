@@ -15,7 +15,7 @@ import tauwatch.monitor.live.SessionControl;
  */
 public final class LiveViewLauncher {
   /** What the application needs, handed over through a static because JavaFX creates it. */
-  record Request(LiveSessionFactory factory, LiveSession firstSession) {}
+  record Request(LiveSessionFactory factory, LiveSession firstSession, String profile) {}
 
   private static final AtomicReference<Request> REQUEST = new AtomicReference<>();
   private static final AtomicReference<SessionControl> LAST = new AtomicReference<>();
@@ -25,10 +25,11 @@ public final class LiveViewLauncher {
   /**
    * Shows the window until it is closed.
    *
+   * @param profile the device profile given on the command line, or null for the default
    * @return the session shown when the window closed (stopped by then), or the first one
    */
-  public static SessionControl show(LiveSessionFactory factory, LiveSession first) {
-    REQUEST.set(new Request(factory, first));
+  public static SessionControl show(LiveSessionFactory factory, LiveSession first, String profile) {
+    REQUEST.set(new Request(factory, first, profile));
     LAST.set(first);
     Application.launch(LiveViewApp.class);
     return LAST.get();

@@ -9,6 +9,7 @@ import javafx.scene.layout.Priority;
 import javafx.scene.layout.Region;
 import javafx.scene.layout.StackPane;
 import javafx.scene.layout.VBox;
+import tauwatch.fit.CurrentClampEstimator;
 import tauwatch.fit.Parameter;
 import tauwatch.fit.PulseEstimate;
 import tauwatch.health.HealthState;
@@ -101,6 +102,16 @@ final class ReadoutTile extends HBox {
     if (lastAccepted == null && status == null) {
       s = HealthState.NO_SIGNAL;
     }
+    String unmeasured =
+        lastAccepted == null || !Double.isNaN(v) ? null : whyNotMeasured(lastAccepted);
+    if (unmeasured != null) {
+      // A value the pulse could not give (e.g. Ra with the bridge balanced) is no health state.
+      change.setText(unmeasured);
+      error.setText("");
+      setState(HealthState.NO_SIGNAL);
+      stateWord.setText("not measured");
+      return;
+    }
     setState(s);
     String word = StateLook.word(s);
     if (status == null && s != HealthState.NO_SIGNAL) {
@@ -110,6 +121,20 @@ final class ReadoutTile extends HBox {
       word += " · last pulse rejected";
     }
     stateWord.setText(word);
+  }
+
+  /** Why the accepted pulse gave no value of this parameter, from the estimator's note. */
+  private String whyNotMeasured(PulseEstimate e) {
+    String note = e.note();
+    if (parameter == Parameter.ACCESS_RESISTANCE
+        && note.contains(CurrentClampEstimator.BRIDGE_BALANCED_NOTE)) {
+      return "bridge balanced: no I·Ra jump to read Ra from";
+    }
+    if (parameter == Parameter.ACCESS_RESISTANCE
+        && note.contains(CurrentClampEstimator.BRIDGE_OVER_BALANCED_NOTE)) {
+      return "bridge over-balanced: Ra not measured";
+    }
+    return "not measured on this pulse";
   }
 
   private void setState(HealthState s) {

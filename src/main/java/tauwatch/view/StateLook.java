@@ -31,6 +31,9 @@ final class StateLook {
   static final Color LIMIT = Color.web("#ff6b5e");
   static final Color REJECTED = Color.web("#c9a0dc");
 
+  /** The average of the latest pulses: cyan, apart from the white trace and the amber fit. */
+  static final Color AVERAGE_TRACE = Color.web("#4fd1e8");
+
   private StateLook() {}
 
   static Color color(HealthState s) {

@@ -35,9 +35,11 @@ final class TransientPanel extends CanvasPanel {
   private static final int PANEL_ARGB = PixelRaster.argb(StateLook.PANEL);
   private static final int PLOT_ARGB = PixelRaster.argb(StateLook.BACKGROUND);
   private static final int WINDOW_ARGB =
-      PixelRaster.over(StateLook.FIT.deriveColor(0, 1, 1, 0.10), StateLook.BACKGROUND);
+      PixelRaster.over(StateLook.FIT.deriveColor(0, 1, 1, 0.06), StateLook.BACKGROUND);
   private static final int GRID_ARGB = PixelRaster.argb(StateLook.GRID);
   private static final int TRACE_ARGB = PixelRaster.argb(StateLook.TRACE);
+  private static final int AVERAGE_ARGB = PixelRaster.argb(StateLook.AVERAGE_TRACE);
+  private boolean showAverage;
   private static final int BASE_ARGB =
       PixelRaster.over(StateLook.BASELINE_TRACE, StateLook.BACKGROUND);
 
@@ -45,8 +47,28 @@ final class TransientPanel extends CanvasPanel {
     setId("transient-panel");
   }
 
+  /** Whether the mean of the latest accepted pulses is drawn over the latest pulse. */
+  void setShowAverage(boolean on) {
+    if (on != showAverage) {
+      showAverage = on;
+      markDirty();
+    }
+  }
+
+  /** The response axis' unit for the trace on show: pA in voltage clamp, mV in current clamp. */
+  String yUnit() {
+    PulseTrace t = shown.trace();
+    return t != null && t.mode() == ClampMode.CURRENT_CLAMP ? "mV" : "pA";
+  }
+
+  boolean showsAverage() {
+    return showAverage;
+  }
+
   void show(LiveSnapshot s) {
-    if (s.trace() != shown.trace() || s.latest() != shown.latest()) {
+    if (s.trace() != shown.trace()
+        || s.latest() != shown.latest()
+        || s.averageTrace() != shown.averageTrace()) {
       markDirty();
     }
     shown = s;
@@ -66,8 +88,7 @@ final class TransientPanel extends CanvasPanel {
       g.fillText("Latest test pulse — waiting for the first pulse", LEFT, 6);
       return;
     }
-    boolean cc = t.mode() == ClampMode.CURRENT_CLAMP;
-    String yUnit = cc ? "mV" : "pA";
+    String yUnit = yUnit();
     double x0 = t.startMs();
     double x1 = t.endMs();
     double lo = t.responseMin();
@@ -76,6 +97,11 @@ final class TransientPanel extends CanvasPanel {
     if (base != null && base.length() > 1) {
       lo = Math.min(lo, base.responseMin());
       hi = Math.max(hi, base.responseMax());
+    }
+    PulseTrace mean = showAverage ? shown.averageTrace() : null;
+    if (mean != null && mean.length() > 1) {
+      lo = Math.min(lo, mean.responseMin());
+      hi = Math.max(hi, mean.responseMax());
     }
     if (e != null) {
       for (FittedTransient f : e.fittedTransients()) {
@@ -121,6 +147,9 @@ final class TransientPanel extends CanvasPanel {
       rasterTrace(base, ax, ay, pt, pb, BASE_ARGB, 1);
     }
     rasterTrace(t, ax, ay, pt, pb, TRACE_ARGB, 0);
+    if (mean != null && mean.length() > 1) {
+      rasterTrace(mean, ax, ay, pt, pb, AVERAGE_ARGB, 1);
+    }
     g.drawImage(raster.image(), 0, 0);
     gridText(g, ax, ay, pw, ph, yUnit);
 
@@ -129,7 +158,7 @@ final class TransientPanel extends CanvasPanel {
         curve(g, f, ax, ay);
       }
     }
-    title(g, t, e, base != null && base != t, w);
+    title(g, t, e, base != null && base != t, mean == null ? 0 : shown.averagePulses(), w, h);
   }
 
   private void gridText(GraphicsContext g, Axis ax, Axis ay, double pw, double ph, String yUnit) {
@@ -141,7 +170,8 @@ final class TransientPanel extends CanvasPanel {
     for (double v = Math.ceil(ax.min() / sx) * sx; v <= ax.max() + 1e-9; v += sx) {
       g.fillText(Numbers.tick(v, sx), Math.round(ax.px(v)) + 0.5, TOP + ph + 4);
     }
-    g.fillText("ms from step onset", LEFT + pw / 2, TOP + ph + 18);
+    g.setTextAlign(TextAlignment.RIGHT);
+    g.fillText("ms from step onset", LEFT + pw, TOP + ph + 18);
     double sy = Numbers.niceStep(ay.span(), 5);
     g.setTextAlign(TextAlignment.RIGHT);
     g.setTextBaseline(VPos.CENTER);
@@ -217,7 +247,14 @@ final class TransientPanel extends CanvasPanel {
     g.strokePolyline(xs, ys, n + 1);
   }
 
-  private void title(GraphicsContext g, PulseTrace t, PulseEstimate e, boolean withBase, double w) {
+  private void title(
+      GraphicsContext g,
+      PulseTrace t,
+      PulseEstimate e,
+      boolean withBase,
+      int averaged,
+      double w,
+      double h) {
     g.setFont(titleFont);
     g.setTextAlign(TextAlignment.LEFT);
     g.setTextBaseline(VPos.TOP);
@@ -237,18 +274,21 @@ final class TransientPanel extends CanvasPanel {
       }
     }
     g.fillText(sb.toString(), LEFT, 5);
-    g.setTextAlign(TextAlignment.RIGHT);
-    double x = w - RIGHT;
     if (e != null && !e.accepted()) {
+      g.setTextAlign(TextAlignment.RIGHT);
       g.setFill(StateLook.REJECTED);
-      g.fillText("rejected: " + e.rejectReason(), x, 5);
+      g.fillText("rejected: " + e.rejectReason(), w - RIGHT, 5);
     } else {
+      // The legend sits under the plot, left of the axis label, so it never runs into the title.
+      g.setFont(tickFont);
+      g.setTextAlign(TextAlignment.LEFT);
       g.setFill(StateLook.AXIS_TEXT);
       g.fillText(
-          (withBase ? "grey: baseline pulse · " : "")
+          (averaged > 0 ? "cyan: mean of last " + averaged + " accepted · " : "")
+              + (withBase ? "grey: baseline pulse · " : "")
               + "amber: fit, shaded: fitted samples, ring: value at the edge",
-          x,
-          5);
+          LEFT,
+          h - 16);
     }
   }
 

@@ -25,20 +25,22 @@ import tauwatch.source.SimulatedSource;
  * Renders the main window after a stretch of a simulated recording into a PNG, for the docs.
  *
  * <p>Usage: {@code java -cp target/tauwatch.jar tauwatch.view.ViewSnapshot OUT.png [SCENARIO
- * [SECONDS]]} under a display (e.g. {@code xvfb-run}). Runs the scenario unpaced through the whole
- * pipeline into a temporary log folder, then shows the window at 1600×1000 and writes its image.
+ * [SECONDS [average]]]} ({@code average} turns the mean-of-last-pulses overlay on) under a display
+ * (e.g. {@code xvfb-run}). Runs the scenario unpaced through the whole pipeline into a temporary
+ * log folder, then shows the window at 1600×1000 and writes its image.
  */
 public final class ViewSnapshot {
   private ViewSnapshot() {}
 
   public static void main(String[] args) throws Exception {
     if (args.length < 1) {
-      System.err.println("usage: ViewSnapshot OUT.png [SCENARIO [SECONDS]]");
+      System.err.println("usage: ViewSnapshot OUT.png [SCENARIO [SECONDS [average]]]");
       System.exit(2);
     }
     Path out = Path.of(args[0]);
     String scenario = args.length > 1 ? args[1] : "ra-creep";
     double seconds = args.length > 2 ? Double.parseDouble(args[2]) : 240;
+    boolean average = args.length > 3 && args[3].equals("average");
     Path logDir = Files.createTempDirectory("tauwatch-snapshot");
     MonitorConfig config = MonitorConfig.defaults();
     SimulatedSource src =
@@ -58,6 +60,7 @@ public final class ViewSnapshot {
           try {
             WatchWindow w = new WatchWindow(null, null);
             w.bind(s, s.model());
+            w.showAverage(average);
             Stage stage = new Stage();
             Scene scene = new Scene(w.root(), 1600, 1000);
             stage.setScene(scene);

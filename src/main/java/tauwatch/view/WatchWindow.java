@@ -5,6 +5,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.function.Consumer;
+import java.util.function.Supplier;
 import javafx.animation.AnimationTimer;
 import javafx.geometry.Insets;
 import javafx.geometry.Orientation;
@@ -20,6 +21,7 @@ import javafx.scene.control.SplitPane;
 import javafx.scene.control.TextField;
 import javafx.scene.control.ToggleButton;
 import javafx.scene.control.ToggleGroup;
+import javafx.scene.control.Tooltip;
 import javafx.scene.layout.BorderPane;
 import javafx.scene.layout.HBox;
 import javafx.scene.layout.Priority;
@@ -34,9 +36,11 @@ import tauwatch.monitor.live.LiveModel;
 import tauwatch.monitor.live.LiveSession;
 import tauwatch.monitor.live.LiveSessionFactory;
 import tauwatch.monitor.live.LiveSnapshot;
+import tauwatch.monitor.live.PulseAverage;
 import tauwatch.monitor.live.SessionControl;
 import tauwatch.monitor.live.SourceStatus;
 import tauwatch.stream.ClampMode;
+import tauwatch.wire.DeviceProfileLoader;
 
 /**
  * Tauwatch's main window: alarm banner and controls on top, the latest transient above the trends
@@ -72,6 +76,9 @@ public final class WatchWindow {
           "sim:sudden-reseal",
           "sim:model-circuit",
           "sim:dendritic-cell",
+          "sim:cc-steady-cell",
+          "tcp://127.0.0.1:5577",
+          "serial:/dev/ttyACM0",
           "file:PATH.csv");
 
   private static final long STATUS_PERIOD_NS = 250_000_000L;
@@ -92,12 +99,18 @@ public final class WatchWindow {
   private final StatusLine status = new StatusLine();
   private final ComboBox<String> sourceBox = new ComboBox<>();
   private final Button switchSource = new Button("Switch source");
+  private final ComboBox<String> profileBox = new ComboBox<>();
+  private final Button profileFile = new Button("Profile file…");
+  private Supplier<String> profileFileChooser;
   private final Button logging = new Button("Stop logging");
   private final Button baseline = new Button("Set baseline now");
   private final TextField markNote = new TextField();
   private final Button addMark = new Button("Add mark");
   private final Button openFolder = new Button("Open session folder");
   private final CheckBox sound = new CheckBox("Alarm sound");
+  private final CheckBox average =
+      new CheckBox(
+          "Overlay the mean of the last " + PulseAverage.DEFAULT_PULSES + " accepted pulses");
   private final Label message = new Label();
 
   private SessionControl control;
@@ -133,6 +146,24 @@ public final class WatchWindow {
     root.setTop(new VBox(banner, controls()));
     root.setCenter(centre());
     root.setBottom(status);
+  }
+
+  /** Selects the device profile for tcp:// and serial: sources; null keeps the default. */
+  public void chooseProfile(String nameOrFile) {
+    if (nameOrFile == null || nameOrFile.isBlank()) {
+      return;
+    }
+    if (!profileBox.getItems().contains(nameOrFile)) {
+      profileBox.getItems().add(nameOrFile);
+    }
+    profileBox.setValue(nameOrFile);
+    profileBox.getEditor().setText(nameOrFile);
+  }
+
+  /** How "Profile file…" asks the user for a file (a path, or null when cancelled). */
+  public void setProfileFileChooser(Supplier<String> chooser) {
+    profileFileChooser = chooser;
+    profileFile.setDisable(chooser == null || !isDeviceUri(sourceBox.getEditor().getText()));
   }
 
   public Parent root() {
@@ -177,6 +208,11 @@ public final class WatchWindow {
     }
   }
 
+  /** The model shown, or null before {@link #bind}. */
+  public LiveModel model() {
+    return model;
+  }
+
   public SessionControl control() {
     return control;
   }
@@ -200,7 +236,7 @@ public final class WatchWindow {
             h == null ? null : h.parameters().get(t.parameter()), s.lastAccepted(), latestRejected);
       }
       showOverall(h, s);
-      banner.show(h, s.alarmHistory());
+      banner.show(h);
       transientPanel.show(s);
       trendPanel.markDirty();
       if (s.recentEvents() != shownEvents) {
@@ -242,6 +278,14 @@ public final class WatchWindow {
         logging.setDisable(!running && factory == null);
         baseline.setDisable(!running);
         addMark.setDisable(!running);
+        addMark.setTooltip(
+            running ? null : new Tooltip("marks go to the session's event log: start logging"));
+        markNote.setPromptText(
+            running ? "note for the event log, e.g. drug on" : "logging stopped: no log to mark");
+        if (!running && control instanceof LiveSession ls && ls.failure() != null) {
+          // A session that failed (e.g. before its logs opened) says why instead of just stopping.
+          message.setText("session ended: " + ls.failure().getMessage());
+        }
       }
     }
   }
@@ -301,6 +345,33 @@ public final class WatchWindow {
     switchSource.setId("switch-source");
     switchSource.setOnAction(e -> switchTo(sourceBox.getEditor().getText()));
     switchSource.setDisable(factory == null);
+    profileBox.setId("profile-box");
+    profileBox.setEditable(true);
+    profileBox.getItems().setAll(DeviceProfileLoader.builtInNames());
+    profileBox.setValue(DeviceProfileLoader.DEFAULT_PROFILE);
+    profileBox.getEditor().setText(DeviceProfileLoader.DEFAULT_PROFILE);
+    profileBox.setPrefWidth(170);
+    profileBox.setTooltip(
+        new Tooltip(
+            "device profile for tcp:// and serial: sources: a built-in name or a drivers/*.toml"
+                + " file (the simulator and files carry their own format)"));
+    profileFile.setId("profile-file");
+    profileFile.setDisable(true);
+    profileFile.setOnAction(
+        e -> {
+          String f = profileFileChooser == null ? null : profileFileChooser.get();
+          if (f != null) {
+            chooseProfile(f);
+          }
+        });
+    sourceBox
+        .getEditor()
+        .textProperty()
+        .addListener(
+            (o, was, now) -> {
+              profileBox.setDisable(!isDeviceUri(now));
+              profileFile.setDisable(!isDeviceUri(now) || profileFileChooser == null);
+            });
     logging.setId("logging");
     logging.setOnAction(e -> toggleLogging());
     baseline.setId("baseline-now");
@@ -323,23 +394,31 @@ public final class WatchWindow {
     sound.selectedProperty().addListener((o, was, on) -> banner.setSoundOn(on));
     message.setId("message");
     Label src = new Label("Source");
-    HBox bar =
+    Label prof = new Label("Profile");
+    // Two rows, so that every control keeps its full label at 1280 px and up.
+    HBox source =
         new HBox(
             8,
             src,
             sourceBox,
+            prof,
+            profileBox,
+            profileFile,
             switchSource,
             sep(),
             logging,
-            baseline,
-            sep(),
-            markNote,
-            addMark,
-            sep(),
-            openFolder,
-            sound,
-            message);
-    bar.setAlignment(Pos.CENTER_LEFT);
+            openFolder);
+    source.setAlignment(Pos.CENTER_LEFT);
+    HBox actions = new HBox(8, baseline, sep(), markNote, addMark, sep(), sound, message);
+    actions.setAlignment(Pos.CENTER_LEFT);
+    for (HBox row : new HBox[] {source, actions}) {
+      for (var n : row.getChildren()) {
+        if (n instanceof Region r && n != message && !(n instanceof TextField)) {
+          r.setMinWidth(Region.USE_PREF_SIZE);
+        }
+      }
+    }
+    VBox bar = new VBox(4, source, actions);
     bar.getStyleClass().add("controls");
     return bar;
   }
@@ -369,7 +448,12 @@ public final class WatchWindow {
     VBox.setVgrow(trendPanel, Priority.ALWAYS);
     transientPanel.setPrefHeight(300);
     transientPanel.setMinHeight(220);
-    VBox left = new VBox(0, transientPanel, trendBar, trendPanel);
+    average.setId("show-average");
+    average.selectedProperty().addListener((o, was, on) -> transientPanel.setShowAverage(on));
+    HBox transientBar = new HBox(8, average);
+    transientBar.setAlignment(Pos.CENTER_RIGHT);
+    transientBar.setPadding(new Insets(2, 8, 0, 8));
+    VBox left = new VBox(0, transientBar, transientPanel, trendBar, trendPanel);
     VBox.setVgrow(trendPanel, Priority.ALWAYS);
 
     overallWord.setId("overall-state");
@@ -420,9 +504,19 @@ public final class WatchWindow {
       message.setText("type a note first");
       return;
     }
-    control.mark(note);
-    markNote.clear();
-    message.setText("mark added");
+    switch (control.mark(note)) {
+      case LOGGED:
+        markNote.clear();
+        message.setText("mark added");
+        break;
+      case QUEUED:
+        markNote.clear();
+        message.setText("mark kept; it is written as soon as the session's log opens");
+        break;
+      default:
+        message.setText("logging is stopped: start logging to add the mark (the note is kept)");
+        break;
+    }
   }
 
   private void toggleLogging() {
@@ -451,12 +545,18 @@ public final class WatchWindow {
       return;
     }
     try {
-      LiveSession s = factory.start(uri);
+      String profile = isDeviceUri(uri) ? profileBox.getEditor().getText().trim() : null;
+      LiveSession s = factory.start(uri, profile);
       bind(s, s.model());
-      message.setText("logging " + uri);
+      message.setText("logging " + uri + (profile == null ? "" : " with profile " + profile));
     } catch (IllegalArgumentException e) {
       message.setText(e.getMessage());
     }
+  }
+
+  private static boolean isDeviceUri(String uri) {
+    String u = uri == null ? "" : uri.trim();
+    return u.startsWith("tcp:") || u.startsWith("serial:");
   }
 
   private void openFolder() {
@@ -469,6 +569,11 @@ public final class WatchWindow {
     if (folderOpener != null) {
       folderOpener.accept(dir);
     }
+  }
+
+  /** Turns the transient's average overlay on or off, as its check box does. */
+  void showAverage(boolean on) {
+    average.setSelected(on);
   }
 
   // For tests: the parts a user looks at.

@@ -4,11 +4,13 @@ import java.io.IOException;
 import java.nio.file.Path;
 import tauwatch.event.EventKind;
 import tauwatch.event.StreamClock;
+import tauwatch.fit.CurrentClampEstimator;
 import tauwatch.fit.Parameter;
 import tauwatch.fit.PulseEstimate;
 import tauwatch.health.HealthCriteria;
 import tauwatch.health.HealthMonitor;
 import tauwatch.health.HealthSnapshot;
+import tauwatch.monitor.MarkOutcome;
 import tauwatch.monitor.live.LiveModel;
 import tauwatch.monitor.live.SessionControl;
 import tauwatch.pulse.PulseWindow;
@@ -25,6 +27,8 @@ import tauwatch.stream.StreamFormat;
 final class ScriptedSession implements SessionControl, AutoCloseable {
   static final StreamFormat FORMAT =
       new StreamFormat(50_000, ClampMode.VOLTAGE_CLAMP, 10_000, 0, "scripted");
+  static final StreamFormat CC_FORMAT =
+      new StreamFormat(50_000, ClampMode.CURRENT_CLAMP, 10_000, 0, "scripted current clamp");
 
   final Path dir;
   final StreamClock clock = new StreamClock(0);
@@ -36,10 +40,14 @@ final class ScriptedSession implements SessionControl, AutoCloseable {
   private long pulse;
 
   ScriptedSession(Path dir) throws IOException {
+    this(dir, FORMAT);
+  }
+
+  ScriptedSession(Path dir, StreamFormat format) throws IOException {
     this.dir = dir;
     events = new EventLog(dir.resolve("events.csv"));
     health = new HealthMonitor(HealthCriteria.defaults(), events, clock);
-    model = new LiveModel("sim:scripted", FORMAT, HealthCriteria.defaults());
+    model = new LiveModel("sim:scripted", format, HealthCriteria.defaults());
     events.addListener(model);
     events.onEvent(clock.event(0, EventKind.SESSION_START, "scripted session"));
   }
@@ -85,6 +93,61 @@ final class ScriptedSession implements SessionControl, AutoCloseable {
   }
 
   /**
+   * One current-clamp pulse every 0.5 s (−50 pA step, Rin 300 MΩ, Cm 30 pF, so tau = Rin·Cm = 9 ms;
+   * Vrest −65 mV), with Ra left out and the estimator's bridge-balanced note, as the current-clamp
+   * estimator reports a balanced bridge.
+   */
+  HealthSnapshot pulseCcBridgeBalanced() {
+    pulse++;
+    double t = 0.5 * pulse;
+    clock.advanceTo(t);
+    PulseEstimate e =
+        PulseEstimate.builder()
+            .pulseNumber(pulse)
+            .onsetTimeS(t)
+            .mode(ClampMode.CURRENT_CLAMP)
+            .stepAmplitude(-50)
+            .model("mono")
+            .value(Parameter.INPUT_RESISTANCE, 300, 2)
+            .value(Parameter.TOTAL_RESISTANCE, 300, 2)
+            .value(Parameter.MEMBRANE_CAPACITANCE, 30, 0.2)
+            .value(Parameter.TIME_CONSTANT, 9.0, 0.03)
+            .value(Parameter.RESTING_POTENTIAL, -65, 0.03)
+            .note(CurrentClampEstimator.BRIDGE_BALANCED_NOTE + ": no I·Ra jump, Ra not measured")
+            .build();
+    HealthSnapshot h = health.onEstimate(e);
+    model.onPulseEstimate(ccWindow(), e, h);
+    return h;
+  }
+
+  /** The RC charging curve V = Vrest + ΔI·Rin·(1 − e^(−t/τ)) (e.g. Johnston & Wu; from memory). */
+  private PulseWindow ccWindow() {
+    int onset = 500;
+    int steps = 5000;
+    int n = onset + steps + 1000;
+    double dtMs = 0.02;
+    double stepMv = -50 * 300 / 1000.0; // pA · MΩ = µV; /1000 → mV
+    PulseWindow w = new PulseWindow(n);
+    w.length = n;
+    w.mode = ClampMode.CURRENT_CLAMP;
+    w.onsetIndex = onset;
+    w.offsetIndex = onset + steps;
+    w.sampleIntervalS = dtMs * 1e-3;
+    w.holdingLevel = 0;
+    w.stepLevel = -50;
+    w.pulseNumber = pulse;
+    for (int i = 0; i < n; i++) {
+      double ton = (i - onset) * dtMs;
+      double toff = (i - onset - steps) * dtMs;
+      double on = ton <= 0 ? 0 : stepMv * (1 - Math.exp(-ton / 9.0));
+      double off = toff <= 0 ? 0 : stepMv * (1 - Math.exp(-toff / 9.0));
+      w.command[i] = i >= onset && i < onset + steps ? -50 : 0;
+      w.response[i] = -65 + on - off;
+    }
+    return w;
+  }
+
+  /**
    * A pulse window holding the textbook RC transient (Gillis 1995 in Sakmann &amp; Neher; from
    * memory): I(t) = I_∞ + (I₀ − I_∞)·e^(−t/τ) after a −5 mV step, Rm 300 MΩ, Cm 30 pF.
    */
@@ -127,8 +190,12 @@ final class ScriptedSession implements SessionControl, AutoCloseable {
   }
 
   @Override
-  public void mark(String note) {
+  public MarkOutcome mark(String note) {
+    if (!running) {
+      return MarkOutcome.SESSION_ENDED;
+    }
     events.onEvent(clock.eventNow(EventKind.MARK, note));
+    return MarkOutcome.LOGGED;
   }
 
   @Override

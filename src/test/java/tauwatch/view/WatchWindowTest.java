@@ -167,4 +167,97 @@ class WatchWindowTest {
         1.0);
     TimeUnit.MILLISECONDS.sleep(1);
   }
+
+  private int pixelsOf(FxRobot robot, javafx.scene.Node n, javafx.scene.paint.Color c) {
+    int[] count = new int[1];
+    robot.interact(
+        () -> {
+          javafx.scene.image.WritableImage img = n.snapshot(null, null);
+          javafx.scene.image.PixelReader r = img.getPixelReader();
+          int want = PixelRaster.argb(c) & 0xffffff;
+          for (int y = 0; y < (int) img.getHeight(); y++) {
+            for (int x = 0; x < (int) img.getWidth(); x++) {
+              if ((r.getArgb(x, y) & 0xffffff) == want) {
+                count[0]++;
+              }
+            }
+          }
+        });
+    return count[0];
+  }
+
+  @Test
+  void theAverageToggleOverlaysTheMeanOfTheLastTenAcceptedPulses(FxRobot robot) {
+    baseline();
+    frame(robot);
+    assertEquals(10, session.model.snapshot().averagePulses());
+    assertEquals(0, pixelsOf(robot, window.transientPanel(), StateLook.AVERAGE_TRACE));
+    robot.clickOn("#show-average");
+    WaitForAsyncUtils.waitForFxEvents();
+    frame(robot);
+    assertTrue(window.transientPanel().showsAverage());
+    int on = pixelsOf(robot, window.transientPanel(), StateLook.AVERAGE_TRACE);
+    assertTrue(on > 200, "cyan average trace drawn: " + on + " px");
+    robot.clickOn("#show-average");
+    WaitForAsyncUtils.waitForFxEvents();
+    frame(robot);
+    assertEquals(0, pixelsOf(robot, window.transientPanel(), StateLook.AVERAGE_TRACE));
+  }
+
+  @Test
+  void theBannerTakesParameterValueAndRuleFromTheAlarmRecordNotFromTheEventText() {
+    // No event at all: the text comes from the health snapshot's structured alarm alone.
+    var alarm =
+        new tauwatch.health.AlarmRecord(
+            Parameter.INPUT_RESISTANCE, 77, 95.0, 142.0, 300.0, -52.7, "min 150 MΩ");
+    var status =
+        new tauwatch.health.ParameterStatus(
+            Parameter.INPUT_RESISTANCE,
+            HealthState.BREACH,
+            138.0,
+            300.0,
+            -54.0,
+            "min 150 MΩ",
+            true,
+            alarm);
+    var h =
+        new tauwatch.health.HealthSnapshot(
+            80,
+            96.5,
+            HealthState.BREACH,
+            java.util.Map.of(Parameter.INPUT_RESISTANCE, status),
+            true,
+            20);
+    String text = AlarmBanner.text(h, Parameter.INPUT_RESISTANCE);
+    assertEquals(
+        "ALARM  Input resistance breach: Rin 142 MΩ, rule min 150 MΩ at 1:35 · now Rin 138 MΩ,"
+            + " breach",
+        text);
+  }
+
+  @Test
+  void inCurrentClampTheReadoutsShowRinCmTauVrestAndRaSaysBridgeBalanced(FxRobot robot)
+      throws Exception {
+    Files.createDirectories(dir.resolve("cc"));
+    try (ScriptedSession cc = new ScriptedSession(dir.resolve("cc"), ScriptedSession.CC_FORMAT)) {
+      robot.interact(() -> window.bind(cc, cc.model));
+      for (int i = 0; i < 20; i++) {
+        cc.pulseCcBridgeBalanced();
+      }
+      frame(robot);
+      assertEquals(null, window.tile(Parameter.HOLDING_CURRENT));
+      assertEquals("300", text(robot, "#value-rin"));
+      assertEquals("30.0", text(robot, "#value-cm"));
+      assertEquals("9.000", text(robot, "#value-tau"));
+      assertEquals("-65.0", text(robot, "#value-vrest"));
+      assertEquals("mV", Parameter.RESTING_POTENTIAL.unit());
+      assertEquals("–", text(robot, "#value-ra"));
+      assertEquals("not measured", text(robot, "#state-ra"));
+      assertTrue(
+          text(robot, "#change-ra").startsWith("bridge balanced"), text(robot, "#change-ra"));
+      assertEquals(HealthState.STEADY, window.tile(Parameter.INPUT_RESISTANCE).shownState());
+      assertTrue(
+          window.transientPanel().yUnit().equals("mV"), "transient axis in mV in current clamp");
+    }
+  }
 }

@@ -45,6 +45,9 @@ public final class LiveModel implements EstimateListener, EventSink {
   private HealthSnapshot health;
   private PulseTrace trace;
   private PulseTrace baselineTrace;
+  private PulseTrace averageTrace;
+  private int averagePulses;
+  private final PulseAverage average;
   private boolean baselineChanged;
   private long pulses;
   private long accepted;
@@ -54,6 +57,19 @@ public final class LiveModel implements EstimateListener, EventSink {
 
   public LiveModel(
       String sourceName, StreamFormat format, HealthCriteria criteria, TrendHistory trends) {
+    this(sourceName, format, criteria, trends, PulseAverage.DEFAULT_PULSES);
+  }
+
+  /**
+   * @param averagePulses accepted pulses in the transient's average overlay
+   */
+  public LiveModel(
+      String sourceName,
+      StreamFormat format,
+      HealthCriteria criteria,
+      TrendHistory trends,
+      int averagePulses) {
+    this.average = new PulseAverage(averagePulses);
     this.sourceName = sourceName;
     this.format = format;
     this.criteria = criteria;
@@ -77,6 +93,9 @@ public final class LiveModel implements EstimateListener, EventSink {
   private void onPulse(PulseWindow window, PulseEstimate e, HealthSnapshot h) {
     trends.append(e, h);
     PulseTrace t = window == null ? null : PulseTrace.copyOf(window);
+    // Analysis thread only (the single writer): the average is built outside the lock.
+    PulseTrace mean = t != null && e.accepted() ? average.add(t) : null;
+    int meanCount = average.count();
     synchronized (this) {
       latest = e;
       health = h;
@@ -84,6 +103,10 @@ public final class LiveModel implements EstimateListener, EventSink {
       if (e.accepted()) {
         accepted++;
         lastAccepted = e;
+      }
+      if (mean != null) {
+        averageTrace = mean;
+        averagePulses = meanCount;
       }
       if (t != null) {
         trace = t;
@@ -131,6 +154,8 @@ public final class LiveModel implements EstimateListener, EventSink {
             health,
             trace,
             baselineTrace,
+            averageTrace,
+            averagePulses,
             pulses,
             accepted,
             eventsView,

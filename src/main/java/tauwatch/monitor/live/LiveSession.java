@@ -5,10 +5,12 @@ import java.nio.file.Path;
 import java.time.Duration;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
+import java.util.function.Consumer;
 import tauwatch.fit.Parameter;
 import tauwatch.fit.PulseEstimator;
 import tauwatch.health.HealthMonitor;
 import tauwatch.health.HealthSnapshot;
+import tauwatch.monitor.MarkOutcome;
 import tauwatch.monitor.Monitor;
 import tauwatch.monitor.MonitorConfig;
 import tauwatch.monitor.MonitorResult;
@@ -47,8 +49,24 @@ public final class LiveSession implements SessionControl {
       PulseEstimator estimator,
       Path logDir,
       Duration duration) {
+    return start(source, config, estimator, logDir, duration, m -> {});
+  }
+
+  /**
+   * Starts a session, letting {@code setup} add to the monitor (session fields) before it runs.
+   *
+   * @param duration stream time to run, or null until stopped or the stream ends
+   */
+  public static LiveSession start(
+      SampleSource source,
+      MonitorConfig config,
+      PulseEstimator estimator,
+      Path logDir,
+      Duration duration,
+      Consumer<Monitor> setup) {
     LiveModel model = new LiveModel(source.name(), source.format(), config.health());
     Monitor m = new Monitor(source, config, estimator, logDir);
+    setup.accept(m);
     m.addListener(model).addEventListener(model);
     LiveSession s = new LiveSession(m, model);
     Thread t = new Thread(() -> s.runToEnd(duration), "tauwatch-session");
@@ -110,8 +128,8 @@ public final class LiveSession implements SessionControl {
   }
 
   @Override
-  public void mark(String note) {
-    monitor.mark(note);
+  public MarkOutcome mark(String note) {
+    return monitor.mark(note);
   }
 
   @Override

@@ -11,7 +11,9 @@ package tauwatch.monitor.live;
 public interface LiveSessionFactory {
   /**
    * @param sourceUri a {@code --source} URI
+   * @param profile for {@code tcp://} and {@code serial:} sources, a device profile name or file
+   *     ({@code --profile}); null or blank for the default; ignored for other sources
    * @throws IllegalArgumentException with a one-line reason when the source cannot be opened
    */
-  LiveSession start(String sourceUri);
+  LiveSession start(String sourceUri, String profile);
 }

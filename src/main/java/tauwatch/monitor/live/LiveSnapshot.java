@@ -17,6 +17,8 @@ import tauwatch.health.HealthSnapshot;
  * @param health the health after the latest pulse, or null before the first
  * @param trace the latest pulse's command and response, or null
  * @param baselineTrace the pulse at which the baseline was last set, or null
+ * @param averageTrace the mean of the latest accepted pulses ({@link PulseAverage}), or null
+ * @param averagePulses how many pulses {@code averageTrace} holds
  * @param pulses pulses analysed
  * @param acceptedPulses pulses accepted
  * @param recentEvents the latest events, oldest first (at most {@link LiveModel#RECENT_EVENTS})
@@ -30,6 +32,8 @@ public record LiveSnapshot(
     HealthSnapshot health,
     PulseTrace trace,
     PulseTrace baselineTrace,
+    PulseTrace averageTrace,
+    int averagePulses,
     long pulses,
     long acceptedPulses,
     List<MonitorEvent> recentEvents,
@@ -37,6 +41,6 @@ public record LiveSnapshot(
 
   /** Before the first pulse. */
   public static LiveSnapshot empty() {
-    return new LiveSnapshot(0, null, null, null, null, null, 0, 0, List.of(), List.of());
+    return new LiveSnapshot(0, null, null, null, null, null, null, 0, 0, 0, List.of(), List.of());
   }
 }

@@ -46,6 +46,43 @@ public final class PulseTrace {
     responseMax = n == 0 ? Double.NaN : hi;
   }
 
+  private PulseTrace(PulseTrace like, float[] command, float[] response, long pulseNumber) {
+    this.pulseNumber = pulseNumber;
+    mode = like.mode;
+    sampleIntervalMs = like.sampleIntervalMs;
+    onsetIndex = like.onsetIndex;
+    offsetIndex = like.offsetIndex;
+    this.command = command;
+    this.response = response;
+    double lo = Double.POSITIVE_INFINITY;
+    double hi = Double.NEGATIVE_INFINITY;
+    for (float r : response) {
+      lo = Math.min(lo, r);
+      hi = Math.max(hi, r);
+    }
+    responseMin = response.length == 0 ? Double.NaN : lo;
+    responseMax = response.length == 0 ? Double.NaN : hi;
+  }
+
+  /**
+   * A trace with the timing of {@code like} and the given samples (taken over, not copied), e.g. an
+   * average; {@code pulseNumber} is the newest pulse it contains.
+   */
+  static PulseTrace withSamples(
+      PulseTrace like, float[] command, float[] response, long pulseNumber) {
+    return new PulseTrace(like, command, response, pulseNumber);
+  }
+
+  /** Whether {@code o} has the same mode, sampling and step timing, so the two can be averaged. */
+  public boolean alignsWith(PulseTrace o) {
+    return o != null
+        && o.mode == mode
+        && o.sampleIntervalMs == sampleIntervalMs
+        && o.onsetIndex == onsetIndex
+        && o.offsetIndex == offsetIndex
+        && o.response.length == response.length;
+  }
+
   /** Copies the window's valid samples; call during the listener call that hands it out. */
   public static PulseTrace copyOf(PulseWindow w) {
     return new PulseTrace(w);

@@ -3,6 +3,7 @@ package tauwatch.monitor.live;
 import java.nio.file.Path;
 import tauwatch.fit.Parameter;
 import tauwatch.health.HealthSnapshot;
+import tauwatch.monitor.MarkOutcome;
 import tauwatch.stream.StreamCounters;
 
 /**
@@ -18,8 +19,11 @@ public interface SessionControl {
   /** Sets the baseline from the latest accepted pulses, at the next pulse. */
   void requestBaselineNow();
 
-  /** Writes a user's note to the event log. */
-  void mark(String note);
+  /**
+   * Writes a user's note to the event log, or queues it until the log opens; never drops it
+   * silently.
+   */
+  MarkOutcome mark(String note);
 
   /** The health after the latest pulse or acknowledgement, or null before the session starts. */
   HealthSnapshot health();
