@@ -174,21 +174,13 @@ public final class CurrentClampEstimator implements PulseEstimator {
     if (!Double.isFinite(rin) || !Double.isFinite(cm)) {
       return "fit gave non-finite values";
     }
-    if (rin < options.minRinMOhm() || rin > options.maxRinMOhm()) {
-      return "Rin "
-          + fmt(rin)
-          + " MΩ outside "
-          + fmt(options.minRinMOhm())
-          + "–"
-          + fmt(options.maxRinMOhm());
+    String implausible =
+        PulsePreamble.outside("Rin", rin, "MΩ", options.minRinMOhm(), options.maxRinMOhm());
+    if (implausible == null) {
+      implausible = PulsePreamble.outside("Cm", cm, "pF", options.minCmPf(), options.maxCmPf());
     }
-    if (cm < options.minCmPf() || cm > options.maxCmPf()) {
-      return "Cm "
-          + fmt(cm)
-          + " pF outside "
-          + fmt(options.minCmPf())
-          + "–"
-          + fmt(options.maxCmPf());
+    if (implausible != null) {
+      return implausible;
     }
     return null;
   }

@@ -89,6 +89,14 @@ final class PulsePreamble {
     return null;
   }
 
+  /** Why {@code v} is implausible ("Ra 250 MΩ outside 0.5–200"), or null when within [lo, hi]. */
+  static String outside(String name, double v, String unit, double lo, double hi) {
+    if (v >= lo && v <= hi) {
+      return null;
+    }
+    return name + " " + fmt(v) + " " + unit + " outside " + fmt(lo) + "–" + fmt(hi);
+  }
+
   static String fmt(double v) {
     return String.format(java.util.Locale.ROOT, "%.3g", v);
   }

@@ -203,29 +203,17 @@ public final class VoltageClampEstimator implements PulseEstimator {
     if (!Double.isFinite(ra) || !Double.isFinite(rt) || !Double.isFinite(cm)) {
       return "fit gave non-finite values";
     }
-    if (ra < options.minRaMOhm() || ra > options.maxRaMOhm()) {
-      return "Ra "
-          + fmt(ra)
-          + " MΩ outside "
-          + fmt(options.minRaMOhm())
-          + "–"
-          + fmt(options.maxRaMOhm());
+    String implausible =
+        PulsePreamble.outside("Ra", ra, "MΩ", options.minRaMOhm(), options.maxRaMOhm());
+    if (implausible == null) {
+      implausible =
+          PulsePreamble.outside("Rin", rin, "MΩ", options.minRinMOhm(), options.maxRinMOhm());
     }
-    if (rin < options.minRinMOhm() || rin > options.maxRinMOhm()) {
-      return "Rin "
-          + fmt(rin)
-          + " MΩ outside "
-          + fmt(options.minRinMOhm())
-          + "–"
-          + fmt(options.maxRinMOhm());
+    if (implausible == null) {
+      implausible = PulsePreamble.outside("Cm", cm, "pF", options.minCmPf(), options.maxCmPf());
     }
-    if (cm < options.minCmPf() || cm > options.maxCmPf()) {
-      return "Cm "
-          + fmt(cm)
-          + " pF outside "
-          + fmt(options.minCmPf())
-          + "–"
-          + fmt(options.maxCmPf());
+    if (implausible != null) {
+      return implausible;
     }
     return null;
   }
