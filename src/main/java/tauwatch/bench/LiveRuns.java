@@ -47,9 +47,19 @@ public final class LiveRuns {
 
   /** Runs latency, allocation and headroom; returns false when a target check fails. */
   public boolean run() throws Exception {
-    boolean ok = latencyAndAllocation();
-    ok &= samplePathAllocation();
-    ok &= headroom();
+    return run(java.util.Set.of("latency", "headroom"));
+  }
+
+  /** Runs the named sections ({@code latency} with allocation, {@code headroom}). */
+  public boolean run(java.util.Set<String> sections) throws Exception {
+    boolean ok = true;
+    if (sections.contains("latency")) {
+      ok &= latencyAndAllocation();
+      ok &= samplePathAllocation();
+    }
+    if (sections.contains("headroom")) {
+      ok &= headroom();
+    }
     return ok;
   }
 

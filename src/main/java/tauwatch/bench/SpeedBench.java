@@ -72,9 +72,18 @@ public final class SpeedBench {
 
   /** Runs every throughput section; returns false if the naive pipeline disagreed. */
   public boolean run() throws Exception {
-    decoder();
-    segmenterAndFit();
-    return chain();
+    return run(java.util.Set.of("decoder", "fit", "chain"));
+  }
+
+  /** Runs the named sections ({@code decoder}, {@code fit}, {@code chain}). */
+  public boolean run(java.util.Set<String> sections) throws Exception {
+    if (sections.contains("decoder")) {
+      decoder();
+    }
+    if (sections.contains("fit")) {
+      segmenterAndFit();
+    }
+    return !sections.contains("chain") || chain();
   }
 
   // ---------------------------------------------------------------- decoder

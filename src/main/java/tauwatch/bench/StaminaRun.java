@@ -148,6 +148,7 @@ public final class StaminaRun {
     double sHi = settled.stream().mapToDouble(Double::doubleValue).max().orElse(Double.NaN);
     boolean flat = (sHi - sLo) <= HEAP_FLAT_TOLERANCE * sLo;
 
+    List<Long> young = new ArrayList<>();
     long youngMax = 0;
     long youngCount = 0;
     long youngTotal = 0;
@@ -160,6 +161,7 @@ public final class StaminaRun {
           explicit++;
         } else if (p.collector().contains("Young")) {
           youngCount++;
+          young.add(p.durationMs());
           youngTotal += p.durationMs();
           youngMax = Math.max(youngMax, p.durationMs());
         } else {
@@ -212,14 +214,31 @@ public final class StaminaRun {
                 + " %)",
             flat ? "flat (≤ 5 %)" : "GROWS")
         .row(
-            "young GC pauses: count, total, max",
-            youngCount + ", " + youngTotal + " ms, " + youngMax + " ms",
+            "young GC pauses: count, total, median, p99, max (ms, JMX whole-ms resolution)",
+            youngCount
+                + ", "
+                + youngTotal
+                + ", "
+                + pct(young, 0.5)
+                + ", "
+                + pct(young, 0.99)
+                + ", "
+                + youngMax,
             "")
         .row("other GC pauses (not forced): count, max", otherCount + ", " + otherMax + " ms", "")
         .row("forced GCs (one per hour, by this run)", Long.toString(explicit), "")
         .row("summary values kept (bounded)", Integer.toString(summary.retained()), "")
         .print(out);
     return rowsOk && streamOk && flat;
+  }
+
+  private static long pct(List<Long> v, double q) {
+    if (v.isEmpty()) {
+      return 0;
+    }
+    List<Long> s = new ArrayList<>(v);
+    java.util.Collections.sort(s);
+    return s.get((int) Math.min(s.size() - 1, Math.floor(q * s.size())));
   }
 
   private static double oldGenAfterGcMb() {

@@ -54,6 +54,15 @@ final class BenchCommand implements Callable<Integer> {
   double headroomSeconds;
 
   @Option(
+      names = "--only",
+      split = ",",
+      paramLabel = "SECTION",
+      description =
+          "Run only these sections: decoder, fit (segmenter and fit), chain, latency (with"
+              + " allocation), headroom (default: all).")
+  java.util.List<String> only;
+
+  @Option(
       names = "--stamina",
       description = "Run the stamina recording instead of the speed tables.")
   boolean stamina;
@@ -80,6 +89,14 @@ final class BenchCommand implements Callable<Integer> {
           "--rounds must be ≥ 1, --chain-seconds and --latency-seconds ≥ 10, --headroom-seconds ≥"
               + " 2, --hours > 0");
     }
+    java.util.Set<String> all = java.util.Set.of("decoder", "fit", "chain", "latency", "headroom");
+    java.util.Set<String> sections = only == null ? all : java.util.Set.copyOf(only);
+    for (String sName : sections) {
+      if (!all.contains(sName)) {
+        throw new UserInputException(
+            "--only: unknown section '" + sName + "' (decoder, fit, chain, latency, headroom)");
+      }
+    }
     PrintWriter out = spec.commandLine().getOut();
     Path dir =
         workDir != null
@@ -90,8 +107,8 @@ final class BenchCommand implements Callable<Integer> {
     if (stamina) {
       ok = new StaminaRun(out, dir, hours).run();
     } else {
-      ok = new SpeedBench(out, dir, chainSeconds, rounds).run();
-      ok &= new LiveRuns(out, dir, latencySeconds, headroomSeconds).run();
+      ok = new SpeedBench(out, dir, chainSeconds, rounds).run(sections);
+      ok &= new LiveRuns(out, dir, latencySeconds, headroomSeconds).run(sections);
     }
     out.println(machine("end"));
     out.println("work folder: " + dir);
