@@ -63,6 +63,12 @@ class SlowConsumerOverrunTest {
       w.put(-70, 0.01 * (i % 100));
     }
     release.countDown();
+    // Let the consumer wake and drain before writing on, so that only the stall loses samples
+    // (bounded wait; the counts below do not depend on how long it takes).
+    long deadline = System.nanoTime() + 20_000_000_000L;
+    while (ring.remainingCapacity() < SLOTS && System.nanoTime() < deadline) {
+      Thread.sleep(1);
+    }
     long after = 4L * BLOCK;
     for (long i = 0; i < after; i++) {
       w.put(-70, 0);
