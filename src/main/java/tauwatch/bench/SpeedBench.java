@@ -228,9 +228,10 @@ public final class SpeedBench {
     }
     long[] pulses = {0};
     tauwatch.stream.StreamFormat format = rec.format();
+    // 30 untimed rounds: the segmenter's loop is compiled (and OSR-replaced) in the first ones.
     double product =
         Repeats.medianSeconds(
-            5,
+            30,
             rounds,
             () -> {
               PulseSegmenter s =
@@ -252,7 +253,7 @@ public final class SpeedBench {
     SegmenterOptions o = SegmenterOptions.defaults();
     double naive =
         Repeats.medianSeconds(
-            3,
+            10,
             rounds,
             () -> {
               NaivePulseFinder f =
