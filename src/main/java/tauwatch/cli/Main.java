@@ -27,6 +27,7 @@ import picocli.CommandLine.Command;
       CheckoutCommand.class,
       ReportCommand.class,
       BenchCommand.class,
+      AccuracyCommand.class,
       CommandLine.HelpCommand.class
     })
 public final class Main {

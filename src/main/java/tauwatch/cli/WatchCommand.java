@@ -4,6 +4,8 @@ import java.awt.GraphicsEnvironment;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.concurrent.Callable;
+import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicReference;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
@@ -11,7 +13,12 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 import tauwatch.monitor.MonitorConfig;
 import tauwatch.monitor.MonitorResult;
+import tauwatch.monitor.PulseEstimators;
+import tauwatch.monitor.live.LiveSession;
+import tauwatch.monitor.live.LiveSessionFactory;
+import tauwatch.monitor.live.SessionControl;
 import tauwatch.source.SampleSource;
+import tauwatch.view.LiveViewLauncher;
 
 /** {@code tauwatch watch}: the live monitor. */
 @Command(
@@ -20,7 +27,8 @@ import tauwatch.source.SampleSource;
     description = {
       "Watches a cell live: finds every test pulse, fits it, prints the estimates with their"
           + " health state, and logs params.csv, events.csv and session.json.",
-      "With no options it watches the built-in simulated cell."
+      "With no options it watches the built-in simulated cell, in a window when a display is"
+          + " present (--headless for the console)."
     })
 final class WatchCommand implements Callable<Integer> {
   @Spec CommandSpec spec;
@@ -87,9 +95,7 @@ final class WatchCommand implements Callable<Integer> {
         SourceOpener.open(uri, !noPacing, seed, filterHz, profile, capture);
     SampleSource src = opened.source();
     if (!headless && !GraphicsEnvironment.isHeadless()) {
-      spec.commandLine()
-          .getErr()
-          .println("watch: the live view is not in this version; watching on the console");
+      return watchInWindow(src, config, filterHz);
     }
     MonitorResult r;
     try (opened) {
@@ -111,5 +117,61 @@ final class WatchCommand implements Callable<Integer> {
               });
     }
     return r.complete() ? Main.EXIT_OK : Main.EXIT_BAD_INPUT;
+  }
+
+  /** The live view: runs until the window is closed; later sessions start from its controls. */
+  private int watchInWindow(SampleSource first, MonitorConfig config, double filterHz)
+      throws UserInputException, InterruptedException {
+    LiveSession firstSession = startLive(first, config);
+    AtomicReference<LiveSession> current = new AtomicReference<>(firstSession);
+    LiveSessionFactory factory =
+        uri -> {
+          try {
+            LiveSession s = startLive(SourceOpener.open(uri, !noPacing, seed, filterHz), config);
+            current.set(s);
+            return s;
+          } catch (UserInputException e) {
+            throw new IllegalArgumentException(e.getMessage(), e);
+          }
+        };
+    // Ctrl-C or a kill while the window is open: end the session so its files close cleanly.
+    Thread hook =
+        new Thread(
+            () -> {
+              LiveSession s = current.get();
+              s.stop();
+              try {
+                s.awaitEnd(10, TimeUnit.SECONDS);
+              } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+              }
+            },
+            "tauwatch-shutdown");
+    Runtime.getRuntime().addShutdownHook(hook);
+    SessionControl last = LiveViewLauncher.show(factory, firstSession);
+    try {
+      Runtime.getRuntime().removeShutdownHook(hook);
+    } catch (IllegalStateException shuttingDown) {
+      // The JVM is already exiting and runs the hook itself.
+      return Main.EXIT_OK;
+    }
+    last.stop();
+    if (last instanceof LiveSession ls && !ls.awaitEnd(15, TimeUnit.SECONDS)) {
+      spec.commandLine().getErr().println("watch: the session did not close its logs in 15 s");
+      return Main.EXIT_BAD_INPUT;
+    }
+    if (last.sessionDir() != null) {
+      spec.commandLine().getOut().println("session folder: " + last.sessionDir());
+    }
+    return Main.EXIT_OK;
+  }
+
+  private LiveSession startLive(SampleSource src, MonitorConfig config) throws UserInputException {
+    try {
+      return LiveSession.start(
+          src, config, PulseEstimators.forFormat(src.format(), config), session.logDir, duration);
+    } catch (IllegalArgumentException e) {
+      throw new UserInputException(src.name() + ": " + e.getMessage());
+    }
   }
 }

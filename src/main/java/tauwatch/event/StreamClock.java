@@ -45,6 +45,14 @@ public final class StreamClock {
     return new MonitorEvent(wallMillis(streamTimeS), streamTimeS, kind, detail);
   }
 
+  /**
+   * An event raised now about a point of the stream, e.g. a link that dropped while the stream
+   * stood still: the wall clock is the real one, not the one derived from stream time.
+   */
+  public MonitorEvent eventNow(double streamTimeS, EventKind kind, String detail) {
+    return new MonitorEvent(System.currentTimeMillis(), streamTimeS, kind, detail);
+  }
+
   /** An event raised now from outside the stream (a mark, an acknowledgement). */
   public MonitorEvent eventNow(EventKind kind, String detail) {
     return new MonitorEvent(System.currentTimeMillis(), latestStreamTimeS, kind, detail);

@@ -130,18 +130,7 @@ public final class CurrentClampEstimator implements PulseEstimator {
     if ((end - offset) * dtMs >= options.minDecayTaus() * on.tauMs
         && end - startRow(w, offset) + 1 >= options.minFitSamples()) {
       off = new Side();
-      why =
-          fitSide(
-              w,
-              offset,
-              end,
-              on.steady,
-              on.fit.covariance[0][0],
-              -stepPa,
-              noise,
-              dtMs,
-              window,
-              off);
+      why = fitSide(w, offset, end, on.steady, on.cu[0][0], -stepPa, noise, dtMs, window, off);
       if (why != null) {
         return "off-transient: " + why;
       }
@@ -154,9 +143,19 @@ public final class CurrentClampEstimator implements PulseEstimator {
         System.arraycopy(on.cx[i], 0, c[i], 0, 3);
       }
     } else {
+      // The off-response is measured from the on-response's steady level (u index 0).
+      double[][] cross = OnOffCombination.cross(on.jac, on.cu, 0, off.jac, 3);
       int bad =
           OnOffCombination.combine(
-              on.x, on.cx, off.x, off.cx, options.onOffTolerance(), options.onOffSigmas(), x, c);
+              on.x,
+              on.cx,
+              off.x,
+              off.cx,
+              cross,
+              options.onOffTolerance(),
+              options.onOffSigmas(),
+              x,
+              c);
       if (bad >= 0) {
         return "on/off responses disagree on "
             + NAMES[bad]
@@ -229,6 +228,11 @@ public final class CurrentClampEstimator implements PulseEstimator {
     double tauMs;
     final double[] x = new double[3];
     final double[][] cx = new double[3][3];
+
+    /** Jacobian of x over u = (V_ss, A, τ, V_ref), and u's covariance. */
+    double[][] jac;
+
+    double[][] cu;
   }
 
   /** The first row after the command edge at {@code edge} where the filtered jump has settled. */
@@ -319,6 +323,8 @@ public final class CurrentClampEstimator implements PulseEstimator {
       }
     }
     cu[3][3] = refVar;
+    s.jac = grad;
+    s.cu = cu;
     double[][] cx = OnOffCombination.propagate(grad, cu);
     for (int i = 0; i < 3; i++) {
       System.arraycopy(cx[i], 0, s.cx[i], 0, 3);

@@ -1,6 +1,8 @@
 package tauwatch.fit;
 
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 import tauwatch.stream.ClampMode;
 
 /**
@@ -26,6 +28,7 @@ public final class PulseEstimate {
   private final double sweepTimeS;
   private final long pulseEndReceivedNanos;
   private final String note;
+  private final List<FittedTransient> fittedTransients;
 
   private PulseEstimate(Builder b, String rejectReason) {
     this.pulseNumber = b.pulseNumber;
@@ -41,6 +44,7 @@ public final class PulseEstimate {
     this.sweepTimeS = b.sweepTimeS;
     this.pulseEndReceivedNanos = b.pulseEndReceivedNanos;
     this.note = b.note;
+    this.fittedTransients = List.copyOf(b.fittedTransients);
   }
 
   public static Builder builder() {
@@ -67,6 +71,7 @@ public final class PulseEstimate {
     b.sweepTimeS = sweepTimeS;
     b.pulseEndReceivedNanos = pulseEndReceivedNanos;
     b.note = note;
+    b.fittedTransients.addAll(fittedTransients);
     return b;
   }
 
@@ -140,6 +145,14 @@ public final class PulseEstimate {
     return note;
   }
 
+  /**
+   * The fitted curves the estimate came from, in time order (on-transient, then off-transient), for
+   * drawing; empty when the estimator kept none or the fit failed before any curve was found.
+   */
+  public List<FittedTransient> fittedTransients() {
+    return fittedTransients;
+  }
+
   @Override
   public String toString() {
     StringBuilder sb = new StringBuilder("PulseEstimate[#").append(pulseNumber);
@@ -168,6 +181,7 @@ public final class PulseEstimate {
     private double sweepTimeS = Double.NaN;
     private long pulseEndReceivedNanos;
     private String note = "";
+    private final List<FittedTransient> fittedTransients = new ArrayList<>(2);
 
     private Builder() {
       Arrays.fill(values, Double.NaN);
@@ -237,6 +251,12 @@ public final class PulseEstimate {
     /** Adds a remark (see {@link PulseEstimate#note()}); remarks are joined by "; ". */
     public Builder note(String text) {
       note = note.isEmpty() ? text : note + "; " + text;
+      return this;
+    }
+
+    /** Adds a fitted curve (in time order), for drawing. */
+    public Builder fitted(FittedTransient t) {
+      fittedTransients.add(t);
       return this;
     }
 

@@ -116,6 +116,9 @@ public final class VoltageClampEstimator implements PulseEstimator {
 
     Side on = new Side();
     String why = fitSide(w, onset, offset, holdPa, holdVar, stepMv, noise, dtMs, window, null, on);
+    if (on.curve != null) {
+      b.fitted(on.curve);
+    }
     if (why != null) {
       return "on-transient: " + why;
     }
@@ -132,6 +135,9 @@ public final class VoltageClampEstimator implements PulseEstimator {
       off = new Side();
       why =
           fitSide(w, offset, end, on.steadyPa, on.steadyVar, -stepMv, noise, dtMs, window, on, off);
+      if (off.curve != null) {
+        b.fitted(off.curve);
+      }
       if (why != null) {
         return "off-transient: " + why;
       }
@@ -146,9 +152,20 @@ public final class VoltageClampEstimator implements PulseEstimator {
         System.arraycopy(on.cx[i], 0, c[i], 0, k);
       }
     } else {
+      // The off-transient is measured from the on-transient's steady current (u index 0), which
+      // enters its Jacobian in the last column (the reference level).
+      double[][] cross = OnOffCombination.cross(on.jac, on.cu, 0, off.jac, off.cu.length - 1);
       int bad =
           OnOffCombination.combine(
-              on.x, on.cx, off.x, off.cx, options.onOffTolerance(), options.onOffSigmas(), x, c);
+              on.x,
+              on.cx,
+              off.x,
+              off.cx,
+              cross,
+              options.onOffTolerance(),
+              options.onOffSigmas(),
+              x,
+              c);
       if (bad >= 0) {
         String[] names = on.bi ? BI_NAMES : SIDE_NAMES;
         return "on/off transients disagree on "
@@ -202,6 +219,22 @@ public final class VoltageClampEstimator implements PulseEstimator {
     int n = on.samples + (off == null ? 0 : off.samples);
     b.rmsResidual(Math.sqrt(rss / n));
 
+    // The holding current's standard error from the noise of the baseline and both fits' residuals
+    // (ResidualNoise): the baseline's own few rows estimate their noise too roughly for a 95 %
+    // interval to cover 95 %.
+    ResidualNoise pool = new ResidualNoise();
+    pool.add(w.response, nPre - nb, onset, onset, dtMs, holdPa, NONE, NONE, 1);
+    on.addResidualTo(pool, w.response, dtMs);
+    if (off != null) {
+      off.addResidualTo(pool, w.response, dtMs);
+    }
+    double poolInflation =
+        Math.max(pool.varianceInflation(), filter.noiseVarianceInflation(w.sampleIntervalS));
+    double pooledHoldSe = pool.sd() * Math.sqrt(poolInflation / nb);
+    if (Double.isFinite(pooledHoldSe)) {
+      b.value(Parameter.HOLDING_CURRENT, holdPa, pooledHoldSe);
+    }
+
     if (!Double.isFinite(ra) || !Double.isFinite(rt) || !Double.isFinite(cm)) {
       return "fit gave non-finite values";
     }
@@ -248,10 +281,29 @@ public final class VoltageClampEstimator implements PulseEstimator {
     double steadyVar;
     double[] x;
     double[][] cx;
+
+    /** Jacobian of x over u = (I_ss, fit parameters…, I_ref), and u's covariance. */
+    double[][] jac;
+
+    double[][] cu;
     double slowestTauMs;
     double chargePaMs;
     double rssPa2;
     int samples;
+    FittedTransient curve;
+
+    /** The fitted model over rows fitFrom..fitTo, times from the edge row. */
+    int edge;
+
+    int fitFrom;
+    int fitTo;
+    double fitOffset;
+    double[] fitAmps;
+    double[] fitTaus;
+
+    void addResidualTo(ResidualNoise pool, double[] y, double dtMs) {
+      pool.add(y, fitFrom, fitTo, edge, dtMs, fitOffset, fitAmps, fitTaus, 1 + 2 * fitAmps.length);
+    }
   }
 
   /**
@@ -380,6 +432,19 @@ public final class VoltageClampEstimator implements PulseEstimator {
         > options.maxResidualToNoise() * noisePa + options.residualFloorFraction() * biAtStart) {
       return "residual " + fmt(rms) + " pA far above the baseline noise " + fmt(noisePa) + " pA";
     }
+    String unresolved =
+        chargeMismatch(
+            w.response,
+            edge,
+            start,
+            dtMs,
+            refPa,
+            new double[] {p[0], p[1], p[2], p[3], p[4]},
+            scaled(bi.covariance, BiExponentialFit.P, inflation),
+            noise);
+    if (unresolved != null) {
+      return unresolved;
+    }
     // u = (I_ss, A₁, τ₁, A₂, τ₂, I_ref); the fit's part widened by the noise's correlation.
     double[] u = {
       p[0], p[1], p[2], p[3], p[4], refPa,
@@ -392,6 +457,15 @@ public final class VoltageClampEstimator implements PulseEstimator {
     }
     cu[5][5] = refVar;
     double[] x = biDerived(u, stepMv);
+    s.curve =
+        new FittedTransient(
+            (edge - w.onsetIndex) * dtMs,
+            (start - w.onsetIndex) * dtMs,
+            (last - w.onsetIndex) * dtMs,
+            p[BiExponentialFit.ISS],
+            new double[] {p[BiExponentialFit.A1], p[BiExponentialFit.A2]},
+            new double[] {p[BiExponentialFit.T1], p[BiExponentialFit.T2]},
+            refPa + MOHM_PER_MV_PER_PA * stepMv / x[0]);
     // Delta method with a central-difference Jacobian of the derived values.
     double[][] jac = new double[x.length][6];
     for (int j = 0; j < 6; j++) {
@@ -407,12 +481,20 @@ public final class VoltageClampEstimator implements PulseEstimator {
       }
     }
     s.x = x;
+    s.jac = jac;
+    s.cu = cu;
     s.cx = OnOffCombination.propagate(jac, cu);
     s.steadyPa = p[0];
     s.steadyVar = bi.covariance[0][0] * inflation;
     s.slowestTauMs = p[BiExponentialFit.T2];
     s.rssPa2 = bi.rssPa2;
     s.samples = bi.samples;
+    s.edge = edge;
+    s.fitFrom = start;
+    s.fitTo = last;
+    s.fitOffset = p[BiExponentialFit.ISS];
+    s.fitAmps = new double[] {p[BiExponentialFit.A1], p[BiExponentialFit.A2]};
+    s.fitTaus = new double[] {p[BiExponentialFit.T1], p[BiExponentialFit.T2]};
     return null;
   }
 
@@ -602,6 +684,19 @@ public final class VoltageClampEstimator implements PulseEstimator {
     if (excursion > options.maxExcursionSigmas()) {
       return excursionText(excursion);
     }
+    String unresolved =
+        chargeMismatch(
+            w.response,
+            edge,
+            start,
+            dtMs,
+            refPa,
+            new double[] {r.steadyPa, amp, tauMs},
+            scaled(r.covariance, 3, inflation),
+            noise);
+    if (unresolved != null) {
+      return unresolved;
+    }
 
     // Back through the filter: the true amplitude is the tail's amplitude times g(τ).
     double[] gain = filterGain(options, filter, tauMs);
@@ -609,6 +704,15 @@ public final class VoltageClampEstimator implements PulseEstimator {
     double dg = gain[1];
     double delayMs = filter.groupDelayS() * 1e3;
     double dI0 = amp * g + (r.steadyPa - refPa);
+    s.curve =
+        FittedTransient.mono(
+            (edge - w.onsetIndex) * dtMs,
+            (start - w.onsetIndex) * dtMs,
+            (last - w.onsetIndex) * dtMs,
+            r.steadyPa,
+            amp,
+            tauMs,
+            refPa + dI0);
     double dIss = r.steadyPa - refPa;
     double ra = MOHM_PER_MV_PER_PA * stepMv / dI0;
     double rt = MOHM_PER_MV_PER_PA * stepMv / dIss;
@@ -630,12 +734,122 @@ public final class VoltageClampEstimator implements PulseEstimator {
       }
     }
     cu[3][3] = refVar;
+    s.jac = grad;
+    s.cu = cu;
     s.cx = OnOffCombination.propagate(grad, cu);
     s.chargePaMs = charge(w.response, edge, last, r, dtMs, delayMs, dIss);
     s.rssPa2 = r.rssPa2;
     s.samples = r.samples;
+    s.edge = edge;
+    s.fitFrom = start;
+    s.fitTo = last;
+    s.fitOffset = r.steadyPa;
+    s.fitAmps = new double[] {amp};
+    s.fitTaus = new double[] {tauMs};
     return null;
   }
+
+  /**
+   * Why the fitted exponentials do not carry the charge the raw trace shows before the fit starts,
+   * or null when they do.
+   *
+   * <p>A causal low-pass filter with unit DC gain preserves a transient's area and delays a step by
+   * its group delay d (Bessel filter theory), so over the rows between the edge and the fit's first
+   * row t_s the raw trace carries Q_raw = ∫(y − I_ss)dt, while the model predicts Q_model = Σ
+   * a_k·τ_k − ΔI_ss·d − Σ A_k·τ_k·e^(−t_s/τ_k), with a_k = A_k/H(−1/τ_k) the component's amplitude
+   * before the filter (its whole area) less the fitted tail past t_s. A component faster than the
+   * filter resolves has settled before t_s: the fit cannot see it and extrapolates the slower one
+   * back, so its charge is missing from Q_model (on a 5 MΩ, 5 pF soma with a dendrite behind 10
+   * kHz, about half the transient's). The pulse is rejected when |Q_raw − Q_model| exceeds {@link
+   * #CHARGE_MISMATCH_SIGMAS} standard deviations — Q_raw's noise (the baseline's
+   * sd·dt·√(n·inflation) over its n rows) and Q_model's from the fit's covariance (delta method),
+   * independent as they come from different rows — plus {@link #CHARGE_MISMATCH_FRACTION} of the
+   * model's whole transient charge Σ a_k·τ_k (the filter's own modes not quite settled at t_s,
+   * model error).
+   *
+   * @param u (I_ss, A₁, τ₁[, A₂, τ₂]) of the fit, amplitudes of the filtered tail at the edge
+   * @param cu u's covariance, already widened by the noise's variance inflation
+   */
+  private String chargeMismatch(
+      double[] y,
+      int edge,
+      int start,
+      double dtMs,
+      double refPa,
+      double[] u,
+      double[][] cu,
+      BaselineNoise noise) {
+    double delayMs = filter.groupDelayS() * 1e3;
+    // Without a filter the jump falls between the edge row and the next: start the sum there.
+    int first = delayMs > 0 ? edge : edge + 1;
+    if (start - first < 1) {
+      return null;
+    }
+    double[] q = chargeBeforeFit(y, edge, first, start, dtMs, delayMs, refPa, u);
+    double diff = q[0] - q[1];
+    double[] grad = new double[u.length];
+    for (int j = 0; j < u.length; j++) {
+      double h = 1e-6 * Math.max(Math.abs(u[j]), 1e-3);
+      double[] up = u.clone();
+      double[] dn = u.clone();
+      up[j] += h;
+      dn[j] -= h;
+      double[] qp = chargeBeforeFit(y, edge, first, start, dtMs, delayMs, refPa, up);
+      double[] qd = chargeBeforeFit(y, edge, first, start, dtMs, delayMs, refPa, dn);
+      grad[j] = ((qp[0] - qp[1]) - (qd[0] - qd[1])) / (2 * h);
+    }
+    int n = start - first + 1;
+    double rawSd = noise.sd() * dtMs * Math.sqrt(n * noise.varianceInflation());
+    double sd = Math.sqrt(rawSd * rawSd + OnOffCombination.quad(grad, cu));
+    double allowed = CHARGE_MISMATCH_SIGMAS * sd + CHARGE_MISMATCH_FRACTION * Math.abs(q[2]);
+    if (!(Math.abs(diff) <= allowed)) {
+      return "transient faster than the filter resolves (charge before the fit "
+          + fmt(q[0])
+          + " pA·ms, the fitted model's "
+          + fmt(q[1])
+          + " ± "
+          + fmt(sd)
+          + ")";
+    }
+    return null;
+  }
+
+  /** {Q_raw, Q_model, Σ a_k·τ_k} of {@link #chargeMismatch}, in pA·ms. */
+  private double[] chargeBeforeFit(
+      double[] y,
+      int edge,
+      int first,
+      int start,
+      double dtMs,
+      double delayMs,
+      double refPa,
+      double[] u) {
+    double iss = u[0];
+    double qRaw = 0;
+    for (int i = first + 1; i <= start; i++) {
+      qRaw += 0.5 * ((y[i - 1] - iss) + (y[i] - iss)) * dtMs;
+    }
+    double t1 = (first - edge) * dtMs;
+    double ts = (start - edge) * dtMs;
+    double qWhole = 0;
+    double qModel = -(iss - refPa) * delayMs;
+    for (int k = 1; k + 1 < u.length; k += 2) {
+      double amp = u[k];
+      double tau = u[k + 1];
+      double a = amp * filter.tailCorrection(tau * 1e-3);
+      qWhole += a * tau;
+      // Filtered: the whole area from the edge; unfiltered: from the first interval's end.
+      qModel += (delayMs > 0 ? a * tau : amp * tau * Math.exp(-t1 / tau));
+      qModel -= amp * tau * Math.exp(-ts / tau);
+    }
+    return new double[] {qRaw, qModel, qWhole};
+  }
+
+  /** See {@link #chargeMismatch}. */
+  static final double CHARGE_MISMATCH_SIGMAS = 6;
+
+  /** See {@link #chargeMismatch}. */
+  static final double CHARGE_MISMATCH_FRACTION = 0.08;
 
   /**
    * The transient's charge ∫(I − I_ss)dt from the edge, in pA·ms. The raw samples carry it where
@@ -666,6 +880,17 @@ public final class VoltageClampEstimator implements PulseEstimator {
     q += r.amplitudePa * tau * Math.exp(-(last - edge) * dtMs / tau);
     q += dIss * delayMs;
     return q;
+  }
+
+  /** The leading {@code k}×{@code k} block of {@code c} times {@code factor}. */
+  private static double[][] scaled(double[][] c, int k, double factor) {
+    double[][] out = new double[k][k];
+    for (int i = 0; i < k; i++) {
+      for (int j = 0; j < k; j++) {
+        out[i][j] = c[i][j] * factor;
+      }
+    }
+    return out;
   }
 
   private static String fmt(double v) {

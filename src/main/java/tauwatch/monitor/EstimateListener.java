@@ -2,6 +2,7 @@ package tauwatch.monitor;
 
 import tauwatch.fit.PulseEstimate;
 import tauwatch.health.HealthSnapshot;
+import tauwatch.pulse.PulseWindow;
 
 /**
  * Told of every pulse estimate and the health it left, after it is logged.
@@ -12,4 +13,13 @@ import tauwatch.health.HealthSnapshot;
 @FunctionalInterface
 public interface EstimateListener {
   void onEstimate(PulseEstimate estimate, HealthSnapshot health);
+
+  /**
+   * Told of every estimate together with the pulse it came from; by default forwards to {@link
+   * #onEstimate(PulseEstimate, HealthSnapshot)}. The window is a reused buffer, valid only during
+   * the call: a listener that keeps samples (the live view's trace) copies them.
+   */
+  default void onPulseEstimate(PulseWindow window, PulseEstimate estimate, HealthSnapshot health) {
+    onEstimate(estimate, health);
+  }
 }

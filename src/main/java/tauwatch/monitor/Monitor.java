@@ -14,6 +14,7 @@ import tauwatch.event.EventSink;
 import tauwatch.event.StreamClock;
 import tauwatch.fit.PulseEstimator;
 import tauwatch.health.HealthMonitor;
+import tauwatch.health.RecentPulseScreen;
 import tauwatch.pulse.PulseSegmenter;
 import tauwatch.record.EventLog;
 import tauwatch.record.ParamsLog;
@@ -115,7 +116,8 @@ public final class Monitor {
       HealthMonitor h = new HealthMonitor(config.health(), events, streamClock);
       health = h;
       PulseAnalysis analysis =
-          new PulseAnalysis(estimator, h, params, events, streamClock, listeners);
+          new PulseAnalysis(
+              estimator, RecentPulseScreen.defaults(), h, params, events, streamClock, listeners);
       PulseSegmenter segmenter =
           new PulseSegmenter(format, config.segmenterFor(format.mode()), analysis, events);
       StreamWatch watch = new StreamWatch(format, streamClock, h, events);

@@ -9,18 +9,23 @@ import tauwatch.fit.PulseEstimate;
 import tauwatch.fit.PulseEstimator;
 import tauwatch.health.HealthMonitor;
 import tauwatch.health.HealthSnapshot;
+import tauwatch.health.RecentPulseScreen;
 import tauwatch.pulse.PulseListener;
 import tauwatch.pulse.PulseWindow;
 import tauwatch.record.ParamsLog;
 
 /**
- * The per-pulse stage: estimate, judge, log, then tell the listeners.
+ * The per-pulse stage: estimate, screen against the recent pulses, judge, log, then tell the
+ * listeners. The screen runs before the health rules and the log, so a pulse it rejects as an
+ * isolated outlier shows as rejected in {@code params.csv} and never reaches the baseline, the
+ * running average or the judges.
  *
  * <p>Runs on the analysis thread. It is the edge of the per-pulse loop: an unexpected failure of
  * the estimator is caught here, counted, logged as an event, and the next pulse goes on.
  */
 final class PulseAnalysis implements PulseListener {
   private final PulseEstimator estimator;
+  private final RecentPulseScreen screen;
   private final HealthMonitor health;
   private final ParamsLog params;
   private final EventSink events;
@@ -35,12 +40,14 @@ final class PulseAnalysis implements PulseListener {
 
   PulseAnalysis(
       PulseEstimator estimator,
+      RecentPulseScreen screen,
       HealthMonitor health,
       ParamsLog params,
       EventSink events,
       StreamClock clock,
       List<EstimateListener> listeners) {
     this.estimator = estimator;
+    this.screen = screen;
     this.health = health;
     this.params = params;
     this.events = events;
@@ -72,6 +79,7 @@ final class PulseAnalysis implements PulseListener {
     if (window.spansGap && e.accepted()) {
       e = e.rejected("samples lost inside the pulse");
     }
+    e = screen.screen(e);
     pulses++;
     if (e.accepted()) {
       accepted++;
@@ -91,7 +99,7 @@ final class PulseAnalysis implements PulseListener {
     }
     latest = e;
     for (EstimateListener l : listeners) {
-      l.onEstimate(e, h);
+      l.onPulseEstimate(window, e, h);
     }
   }
 

@@ -243,13 +243,13 @@ public final class SessionReport {
       sb.append(
           String.format(
               Locale.ROOT,
-              "  %-6s %10.4g %10.4g %10.4g %10.4g %+7.1f%%   %.0f/%.0f/%.0f/%.0f s  %s%n",
+              "  %-6s %10s %10s %10s %10s %8s   %.0f/%.0f/%.0f/%.0f s  %s%n",
               s.parameter().symbol(),
-              s.baseline(),
-              s.last(),
-              s.min(),
-              s.max(),
-              s.changePercent(),
+              cell(s.baseline(), "%.4g"),
+              cell(s.last(), "%.4g"),
+              cell(s.min(), "%.4g"),
+              cell(s.max(), "%.4g"),
+              cell(s.changePercent(), "%+.1f%%"),
               t[0],
               t[1],
               t[2],
@@ -257,6 +257,11 @@ public final class SessionReport {
               s.parameter().unit()));
     }
     return sb.toString();
+  }
+
+  /** A console cell: the value formatted, or a dash where there is none (no baseline yet). */
+  private static String cell(double v, String format) {
+    return Double.isNaN(v) ? "–" : String.format(Locale.ROOT, format, v);
   }
 
   /** The usable spans as console text. */

@@ -80,9 +80,15 @@ final class TrendPlot {
       lo = Math.min(lo, baseline);
       hi = Math.max(hi, baseline);
     }
-    if (!(hi > lo)) {
-      hi = lo + 1;
+    // Show at least ±10 % around the middle, so that a steady parameter's noise is not blown up to
+    // the plot's height and read as a change.
+    double mid = 0.5 * (lo + hi);
+    double half = Math.max(0.5 * (hi - lo), 0.10 * Math.abs(mid));
+    if (!(half > 0)) {
+      half = 0.5;
     }
+    lo = Math.min(lo, mid - half);
+    hi = Math.max(hi, mid + half);
     double pad = 0.08 * (hi - lo);
     Axes a = new Axes(t0, t1, lo - pad, hi + pad);
 

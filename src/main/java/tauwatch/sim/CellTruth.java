@@ -149,6 +149,26 @@ public record CellTruth(
     return -1 / (halfTrace + Math.sqrt(halfTrace * halfTrace - det));
   }
 
+  /**
+   * The capacitance the clamp charges, as stored charge: Σ C_k·ΔV_k over the soma's ΔV at steady
+   * state, pF — Cm for one compartment, Cm + Cd·Rd/(Rax + Rd) with a dendrite, whose steady ΔV is
+   * the soma's divided down by Rd/(Rax + Rd) (CHECKS.md; the definition NEURON's fixtures use).
+   *
+   * <p>Why not {@link #chargeCapacitancePf}: that one scales the transient's charge ∫(I − I_∞)dt by
+   * (Rt/Rin)², which is exact for one compartment but on a cable reads lower (the dendrite's leak
+   * current during its slow charging is counted against it). The stored charge is what the
+   * estimator's two-exponential Cm reports, and for a membrane with one time constant τ_m
+   * everywhere (Rall's uniform model) it equals τ_m/Rin.
+   */
+  public double storedChargeCapacitancePf() {
+    double cm = cell.membraneCapacitancePf();
+    if (!cell.hasDendrite()) {
+      return cm;
+    }
+    double rd = cell.dendriteMOhm();
+    return cm + cell.dendriteCapacitancePf() * rd / (cell.axialMOhm() + rd);
+  }
+
   /** The cell's input resistance without the electrode (Rm, or Rm ∥ (Rax + Rd)), MΩ. */
   public double cellInputMOhm() {
     double rm = cell.membraneMOhm();

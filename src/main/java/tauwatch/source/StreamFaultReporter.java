@@ -151,6 +151,7 @@ final class StreamFaultReporter {
   }
 
   private void emit(EventKind kind, String detail) {
-    events.onEvent(clock.event(format.timeOfSampleS(writer.nextSampleIndex()), kind, detail));
+    // The wall clock is the real one: during an outage stream time stands still.
+    events.onEvent(clock.eventNow(format.timeOfSampleS(writer.nextSampleIndex()), kind, detail));
   }
 }

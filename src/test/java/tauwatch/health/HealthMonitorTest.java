@@ -166,4 +166,40 @@ class HealthMonitorTest {
     assertTrue(eventsOf(EventKind.ALARM).isEmpty());
     assertTrue(eventsOf(EventKind.STATE_CHANGE).isEmpty());
   }
+
+  private static PulseEstimate pulseWithSe(long n, double ra, double raSe) {
+    return PulseEstimate.builder()
+        .pulseNumber(n)
+        .onsetTimeS(n * 0.5)
+        .value(Parameter.ACCESS_RESISTANCE, ra, raSe)
+        .value(Parameter.INPUT_RESISTANCE, 300, 3)
+        .value(Parameter.MEMBRANE_CAPACITANCE, 30, 0.3)
+        .value(Parameter.HOLDING_CURRENT, -20, 0.3)
+        .build();
+  }
+
+  /**
+   * The gate (issue 5: a change smaller than its uncertainty is not a drift): an Ra step of +30 %,
+   * beyond the 20 % allowed change (common practice), breaches when each pulse's SE is 0.1 MΩ (the
+   * average's SE, 0.1/√N MΩ, is far below 3 MΩ), and is held back when each pulse claims an SE of
+   * 20 MΩ — the weighted average's SE over the default average_pulses then exceeds the 3 MΩ change
+   * divided by change_sigmas, so the change is within its uncertainty.
+   */
+  @Test
+  void aChangeWithinItsUncertaintyIsNotADriftButTheSameChangeMeasuredPreciselyBreaches() {
+    HealthCriteria c = HealthCriteria.defaults();
+    double perPulseSe = 20;
+    // The average's SE with equal weights: perPulseSe/√N; the gate needs |Δ| >= k·SE.
+    assertTrue(3 < c.changeSigmas() * perPulseSe / Math.sqrt(c.averagePulses()));
+    HealthMonitor vague = new HealthMonitor(c, events::add, new StreamClock(0));
+    HealthMonitor precise = new HealthMonitor(c, e -> {}, new StreamClock(0));
+    for (int n = 1; n <= 80; n++) {
+      double ra = n <= 20 ? 10 : 13;
+      vague.onEstimate(pulseWithSe(n, ra, perPulseSe));
+      precise.onEstimate(pulseWithSe(n, ra, 0.1));
+    }
+    assertEquals(HealthState.BREACH, precise.snapshot().state(Parameter.ACCESS_RESISTANCE));
+    assertEquals(HealthState.STEADY, vague.snapshot().state(Parameter.ACCESS_RESISTANCE));
+    assertTrue(eventsOf(EventKind.ALARM).isEmpty());
+  }
 }

@@ -1,6 +1,7 @@
 package tauwatch.sim;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import org.junit.jupiter.api.Test;
 
@@ -130,5 +131,21 @@ class FactsOfTheTradeTest {
     double chargeC = q / -5.0 * Math.pow(truth.totalMOhm() / truth.inputMOhm(), 2);
     assertEquals(truth.chargeCapacitancePf(), chargeC, 1e-3 * truth.chargeCapacitancePf());
     assertEquals(q / (i0 - iInf), truth.tauMs(), 1e-3 * truth.tauMs());
+  }
+
+  @Test
+  void storedChargeCapacitanceOfAUniformMembraneEqualsItsTimeConstantOverRin() {
+    // Rall's uniform membrane (Rm·Cm = Rd·Cd = τ_m): every compartment's steady leak current is
+    // C_k·ΔV_k/τ_m, so Σ C_k·ΔV_k = I_∞·τ_m and the charged capacitance is τ_m/Rin (circuit theory,
+    // CHECKS.md's stored-charge definition); a soma alone charges exactly Cm.
+    CellParameters cell = CellParameters.soma(10, 400, 15, -65).withDendrite(60, 300, 20);
+    CellTruth t = CellTruth.of(0, cell, -70);
+    double tauMMs = 400 * 15 / 1000.0; // MΩ·pF = µs → ms
+    assertEquals(tauMMs / (t.cellInputMOhm() / 1000.0), t.storedChargeCapacitancePf(), 1e-9);
+    assertEquals(15 + 20 * 300 / 360.0, t.storedChargeCapacitancePf(), 1e-9);
+    assertTrue(t.storedChargeCapacitancePf() < t.totalCapacitancePf());
+    assertTrue(t.chargeCapacitancePf() < t.storedChargeCapacitancePf());
+    CellTruth soma = CellTruth.of(0, CellParameters.soma(10, 400, 15, -65), -70);
+    assertEquals(15, soma.storedChargeCapacitancePf(), 1e-12);
   }
 }
