@@ -24,6 +24,7 @@ import tauwatch.monitor.Monitor;
 import tauwatch.monitor.MonitorConfig;
 import tauwatch.monitor.MonitorResult;
 import tauwatch.monitor.PulseEstimators;
+import tauwatch.monitor.live.LiveModel;
 import tauwatch.sim.Scenario;
 import tauwatch.sim.ScenarioLoader;
 import tauwatch.sim.SimulatedRecording;
@@ -36,7 +37,8 @@ import tauwatch.source.SimulatedSource;
  * hour, {@code params.csv} rows against the pulses sent, gap and overrun events, and GC pauses.
  *
  * <p>The session runs on its own threads with the listeners a {@code watch} session has that keep
- * history (the closing summary, a view-like snapshot); this driver only polls the counters.
+ * history (the closing summary, the live view's LiveModel and its trend); this driver only polls
+ * the counters.
  */
 public final class StaminaRun {
   /** Allowed spread of the used heap after GC across the simulated hours. */
@@ -64,7 +66,8 @@ public final class StaminaRun {
     Monitor m = new Monitor(src, config, PulseEstimators.forFormat(src.format(), config), workDir);
     EstimateSummary summary = new EstimateSummary();
     SnapshotPublisher snapshots = new SnapshotPublisher(0);
-    m.addListener(summary).addListener(snapshots);
+    LiveModel view = new LiveModel(src.name(), src.format(), config.health());
+    m.addListener(summary).addListener(view).addEventListener(view).addListener(snapshots);
 
     List<Pause> pauses = java.util.Collections.synchronizedList(new ArrayList<>());
     List<NotificationEmitter> emitters = new ArrayList<>();
@@ -228,6 +231,10 @@ public final class StaminaRun {
         .row("other GC pauses (not forced): count, max", otherCount + ", " + otherMax + " ms", "")
         .row("forced GCs (one per hour, by this run)", Long.toString(explicit), "")
         .row("summary values kept (bounded)", Integer.toString(summary.retained()), "")
+        .row(
+            "view trend rows held (ring of " + view.trends().capacity() + ")",
+            Long.toString(Math.min(view.trends().rowCount(), view.trends().capacity())),
+            "")
         .print(out);
     return rowsOk && streamOk && flat;
   }
