@@ -50,7 +50,7 @@ public final class SpeedBench {
    */
   static final double RA_TOLERANCE = 0.03;
 
-  static final double RIN_TOLERANCE = 0.02;
+  static final double RIN_TOLERANCE = 0.03;
   static final double CM_TOLERANCE = 0.03;
   static final double TAU_TOLERANCE = 0.03;
 
