@@ -26,6 +26,7 @@ import picocli.CommandLine.Command;
       SimulateCommand.class,
       CheckoutCommand.class,
       ReportCommand.class,
+      BenchCommand.class,
       AccuracyCommand.class,
       CommandLine.HelpCommand.class
     })

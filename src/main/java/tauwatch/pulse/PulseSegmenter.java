@@ -112,6 +112,14 @@ public final class PulseSegmenter implements SampleBlockHandler {
     double[] resp = block.response;
     byte[] sweep = block.sweepStart;
     for (int i = 0, n = block.length; i < n; i++, index++) {
+      if (phase == Phase.IDLE && holdingKnown && historyCount == baselineSamples) {
+        int j = quietRun(cmd, resp, sweep, i, n);
+        index += j - i;
+        i = j;
+        if (i == n) {
+          break;
+        }
+      }
       if (sweep[i] != 0) {
         sweepCount++;
         sweepStartIndex = index;
@@ -122,6 +130,40 @@ public final class PulseSegmenter implements SampleBlockHandler {
       }
       onSample(index, c, resp[i], block.receivedNanos);
     }
+  }
+
+  /**
+   * The common case, between pulses with a full baseline history: samples at the holding level,
+   * with a recorded command and no sweep start. Does for each exactly what {@link #onSample} does
+   * in the idle phase (follow the holding level, remember the sample), with the state in locals so
+   * the loop carries no field stores; stops at the first sample that needs the general path.
+   *
+   * @return the index of the first sample not handled
+   */
+  private int quietRun(double[] cmd, double[] resp, byte[] sweep, int from, int to) {
+    double level = holdingLevel;
+    final double alpha = holdingAlpha;
+    final double thr = threshold;
+    final double[] hc = historyCommand;
+    final double[] hr = historyResponse;
+    final int size = baselineSamples;
+    int next = historyNext;
+    int i = from;
+    for (; i < to; i++) {
+      double c = cmd[i];
+      if (sweep[i] != 0 || c != c || Math.abs(c - level) > thr) {
+        break;
+      }
+      level += (c - level) * alpha;
+      hc[next] = c;
+      hr[next] = resp[i];
+      if (++next == size) {
+        next = 0;
+      }
+    }
+    holdingLevel = level;
+    historyNext = next;
+    return i;
   }
 
   /** The rest of a window cut by a gap or signal loss cannot be trusted; so is the baseline. */

@@ -129,4 +129,15 @@ class PackageBoundariesTest {
             "tauwatch.cli..")
         .check(classes);
   }
+
+  @Test
+  void theNaiveBaselineIsUsedByTheBenchmarksAlone() {
+    noClasses()
+        .that()
+        .resideOutsideOfPackage("tauwatch.bench..")
+        .should()
+        .dependOnClassesThat()
+        .resideInAPackage("tauwatch.bench.naive..")
+        .check(classes);
+  }
 }

@@ -38,12 +38,17 @@ class CommandLineErrorsTest {
 
   @Test
   void everyCommandHasHelp() {
-    for (String cmd : new String[] {"watch", "replay"}) {
+    for (String cmd : new String[] {"watch", "replay", "bench"}) {
       Run r = run(cmd, "--help");
       assertEquals(0, r.code());
       assertTrue(r.out().contains("Usage: tauwatch " + cmd), r.out());
     }
     assertEquals(0, run("--help").code());
+  }
+
+  @Test
+  void aBenchmarkWithNoRoundsIsRefusedInOneLine() {
+    assertOneLine(run("bench", "--rounds", "0"), Main.EXIT_BAD_INPUT, "--rounds must be");
   }
 
   @Test
