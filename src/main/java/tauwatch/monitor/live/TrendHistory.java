@@ -13,11 +13,12 @@ import tauwatch.health.HealthState;
  * <p>Single writer: {@link #append} is called on the analysis thread only. Any thread may read:
  * {@link #rowCount()} is a volatile publication of the rows written before it (the writer fills a
  * row, then advances the count with a release store), so a reader that loads the count once sees
- * complete rows below it. Storage is a ring of fixed capacity made of chunks allocated lazily as
- * the session grows (one allocation per {@value #CHUNK_ROWS} rows, never per row); once full, the
- * oldest rows are overwritten. A reader reads only rows from {@link #oldestReadableRow()}, which
- * leaves a slack of {@value #READ_SLACK_ROWS} rows the writer may be overwriting meanwhile. Memory:
- * about 80 bytes per row, 14 MB for 24 h at 2 pulses/s.
+ * complete rows below it. Storage is a ring of fixed capacity made of chunks of {@value
+ * #CHUNK_ROWS} rows, all allocated at construction so that the heap stays flat over a long session;
+ * once full, the oldest rows are overwritten. A reader reads only rows from {@link
+ * #oldestReadableRow()}, which leaves a slack of {@value #READ_SLACK_ROWS} rows the writer may be
+ * overwriting meanwhile. Memory: about 120 bytes per row, 21 MB for 24 h at 2 pulses/s, taken at
+ * start.
  */
 public final class TrendHistory {
   /** Rows per storage chunk. */
@@ -60,6 +61,16 @@ public final class TrendHistory {
     values = new float[chunks][][];
     baselines = new float[chunks][][];
     states = new byte[chunks][][];
+    // All storage up front: a day-long session's heap then stays flat instead of growing by a
+    // chunk every half hour until the ring is full.
+    for (int c = 0; c < chunks; c++) {
+      timeS[c] = new double[CHUNK_ROWS];
+      accepted[c] = new byte[CHUNK_ROWS];
+      overall[c] = new byte[CHUNK_ROWS];
+      values[c] = new float[NP][CHUNK_ROWS];
+      baselines[c] = new float[NP][CHUNK_ROWS];
+      states[c] = new byte[NP][CHUNK_ROWS];
+    }
   }
 
   /** Rows the ring can hold. */
@@ -73,14 +84,6 @@ public final class TrendHistory {
     int slot = (int) (row % capacity);
     int c = slot / CHUNK_ROWS;
     int i = slot % CHUNK_ROWS;
-    if (timeS[c] == null) {
-      timeS[c] = new double[CHUNK_ROWS];
-      accepted[c] = new byte[CHUNK_ROWS];
-      overall[c] = new byte[CHUNK_ROWS];
-      values[c] = new float[NP][CHUNK_ROWS];
-      baselines[c] = new float[NP][CHUNK_ROWS];
-      states[c] = new byte[NP][CHUNK_ROWS];
-    }
     timeS[c][i] = e.onsetTimeS();
     accepted[c][i] = (byte) (e.accepted() ? 1 : 0);
     overall[c][i] = (byte) h.overall().ordinal();
