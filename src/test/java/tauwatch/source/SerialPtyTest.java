@@ -29,6 +29,7 @@ import tauwatch.wire.DeviceProfileLoader;
  * USB serial would be. Truth: the steady cell's Ra 10 MΩ, Rin 300 MΩ, Cm 30 pF (VC formulas of
  * CHECKS.md); tolerance 5 % on the median as over TCP.
  */
+@org.junit.jupiter.api.Tag("serial")
 class SerialPtyTest {
   @TempDir Path dir;
 
