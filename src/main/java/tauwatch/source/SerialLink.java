@@ -51,8 +51,7 @@ final class SerialLink implements ByteLink {
       throw new IOException(describe() + ": cannot open (error " + p.getLastErrorCode() + ")");
     }
     disconnected = false;
-    SerialPort opened = p;
-    p.addDataListener(new DisconnectWatch(opened));
+    p.addDataListener(new DisconnectWatch());
     port = p;
   }
 
@@ -86,14 +85,13 @@ final class SerialLink implements ByteLink {
     return "serial:" + device;
   }
 
-  /** Closes the port on the first disconnect event; jSerialComm repeats it otherwise. */
+  /**
+   * Marks the link lost on the first disconnect event. The port is closed by the source thread when
+   * its read returns (within one read timeout), not here: closing it from jSerialComm's event
+   * thread while the source thread sat in a read was seen to leave that read hanging for good. The
+   * event repeats until then, which costs at most one read timeout of a busy event thread.
+   */
   private final class DisconnectWatch implements SerialPortDataListener {
-    private final SerialPort watched;
-
-    DisconnectWatch(SerialPort watched) {
-      this.watched = watched;
-    }
-
     @Override
     public int getListeningEvents() {
       return SerialPort.LISTENING_EVENT_PORT_DISCONNECTED;
@@ -101,10 +99,7 @@ final class SerialLink implements ByteLink {
 
     @Override
     public void serialEvent(SerialPortEvent event) {
-      if (!disconnected) {
-        disconnected = true;
-        watched.closePort();
-      }
+      disconnected = true;
     }
   }
 }
