@@ -4,10 +4,8 @@ import com.sun.management.ThreadMXBean;
 import java.io.PrintWriter;
 import java.lang.management.ManagementFactory;
 import java.nio.file.Path;
-import java.time.Duration;
 import java.util.Locale;
 import java.util.concurrent.atomic.AtomicLong;
-import java.util.concurrent.atomic.AtomicReference;
 import org.HdrHistogram.Histogram;
 import tauwatch.event.EventKind;
 import tauwatch.event.MonitorEvent;
@@ -112,20 +110,8 @@ public final class LiveRuns {
             overrunEventSamples.addAndGet(Long.parseLong(e.detail().split(" ", 2)[0]));
           }
         });
-    AtomicReference<MonitorResult> result = new AtomicReference<>();
-    AtomicReference<Throwable> failure = new AtomicReference<>();
-    Thread t =
-        new Thread(
-            () -> {
-              try {
-                result.set(m.run(Duration.ofNanos((long) (seconds * 1e9))));
-              } catch (Throwable ex) {
-                failure.set(ex);
-              }
-            },
-            "bench-monitor");
     long t0 = System.nanoTime();
-    t.start();
+    BackgroundSession t = new BackgroundSession(m, seconds, "bench-monitor");
     Thread.sleep((long) (seconds * 300));
     long[] a0 = allocation(pub);
     long s0 = samples(m);
@@ -136,13 +122,10 @@ public final class LiveRuns {
     long s1 = samples(m);
     long p1 = pulses(pub);
     long w1 = System.nanoTime();
-    t.join();
+    MonitorResult result = t.await("bench session");
     double wall = (System.nanoTime() - t0) * 1e-9;
-    if (failure.get() != null) {
-      throw new IllegalStateException("bench session failed", failure.get());
-    }
     return new Session(
-        result.get(),
+        result,
         pub,
         wall,
         overrunEvents.get(),

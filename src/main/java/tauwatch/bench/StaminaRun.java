@@ -9,11 +9,9 @@ import java.lang.management.MemoryPoolMXBean;
 import java.lang.management.MemoryType;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
-import java.util.concurrent.atomic.AtomicReference;
 import java.util.stream.Stream;
 import javax.management.Notification;
 import javax.management.NotificationEmitter;
@@ -87,20 +85,8 @@ public final class StaminaRun {
       }
     }
 
-    AtomicReference<MonitorResult> result = new AtomicReference<>();
-    AtomicReference<Throwable> failure = new AtomicReference<>();
-    Thread t =
-        new Thread(
-            () -> {
-              try {
-                result.set(m.run(Duration.ofNanos((long) (seconds * 1e9))));
-              } catch (Throwable ex) {
-                failure.set(ex);
-              }
-            },
-            "stamina-monitor");
     long t0 = System.nanoTime();
-    t.start();
+    BackgroundSession t = new BackgroundSession(m, seconds, "stamina-monitor");
     Table heap =
         new Table(
             "Stamina: heap after a forced GC at each simulated hour",
@@ -133,10 +119,7 @@ public final class StaminaRun {
     for (NotificationEmitter e : emitters) {
       e.removeNotificationListener(gcListener);
     }
-    if (failure.get() != null) {
-      throw new IllegalStateException("stamina session failed", failure.get());
-    }
-    MonitorResult r = result.get();
+    MonitorResult r = t.await("stamina session");
     heap.print(out);
 
     long rows = ChainReplay.dataRows(r.sessionDir().resolve("params.csv"));
