@@ -5,12 +5,13 @@ package tauwatch.fit;
  * deviations of such an average under the baseline's noise: the test that finds a synaptic event, a
  * spike, a hum burst or a step artefact riding on a transient.
  *
- * <p>Stateless; allocation-free. Why an average and not single samples: a synaptic current of 10 pA
- * lasting milliseconds hides in 2 pA rms noise sample by sample, but its 0.5 ms average stands many
- * standard deviations out; white noise averages down as 1/√m, correlated (filtered) noise only as
- * √(inflation/m) (see {@link BaselineNoise}). A threshold of 6 leaves a false alarm rate per pulse
- * far below 10⁻⁴ for the few hundred independent windows of a pulse (Gaussian tail P(|z| > 6) ≈
- * 2·10⁻⁹ per window; from memory).
+ * <p>Stateless; each call allocates two small cursors ({@link ExponentialCurve}). Why an average
+ * and not single samples: a synaptic current of 10 pA lasting milliseconds hides in 2 pA rms noise
+ * sample by sample, but its 0.5 ms average stands many standard deviations out; white noise
+ * averages down as 1/√m, correlated (filtered) noise only as √(inflation/m) (see {@link
+ * BaselineNoise}). A threshold of 6 leaves a false alarm rate per pulse far below 10⁻⁴ for the few
+ * hundred independent windows of a pulse (Gaussian tail P(|z| > 6) ≈ 2·10⁻⁹ per window; from
+ * memory).
  */
 final class ResidualExcursion {
   private ResidualExcursion() {}
@@ -40,12 +41,17 @@ final class ResidualExcursion {
       return 0;
     }
     int m = Math.max(1, Math.min(window, n));
+    double t0 = (from - ref) * dtMs;
+    ExponentialCurve lead = new ExponentialCurve(offset, amps, taus, t0, dtMs);
+    ExponentialCurve trail = new ExponentialCurve(offset, amps, taus, t0, dtMs);
     double run = 0;
     double worst = 0;
     for (int i = from; i <= to; i++) {
-      run += residual(y, i, ref, dtMs, offset, amps, taus);
+      run += y[i] - lead.value();
+      lead.advance();
       if (i - from >= m) {
-        run -= residual(y, i - m, ref, dtMs, offset, amps, taus);
+        run -= y[i - m] - trail.value();
+        trail.advance();
       }
       if (i - from >= m - 1) {
         worst = Math.max(worst, Math.abs(run / m));
@@ -77,15 +83,5 @@ final class ResidualExcursion {
     }
     double sd = averageSd(noise, Math.max(1, Math.min(window, to - from + 1)));
     return sd > 0 ? excess / sd : Double.POSITIVE_INFINITY;
-  }
-
-  private static double residual(
-      double[] y, int i, int ref, double dtMs, double offset, double[] amps, double[] taus) {
-    double model = offset;
-    double t = (i - ref) * dtMs;
-    for (int k = 0; k < amps.length; k++) {
-      model += amps[k] * Math.exp(-t / taus[k]);
-    }
-    return y[i] - model;
   }
 }

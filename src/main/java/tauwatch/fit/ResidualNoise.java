@@ -4,17 +4,21 @@ package tauwatch.fit;
  * Pools the noise of a pulse's baseline and of its fits' residuals into one estimate of the noise's
  * standard deviation and variance inflation, far steadier than the short baseline's own.
  *
- * <p>Single-threaded accumulator, one per pulse; allocates its lag sums once. Why: the holding
- * current is the mean of a few milliseconds of filtered noise, and a standard error computed from
- * those same rows (about 120 at 50 kHz, some 40 independent ones behind a 10 kHz filter) scatters
- * by ±15 %, which puts heavy tails on the z-scores and lets a 95 % interval cover only ~91 %. The
- * residuals of the on- and off-transient fits carry the same noise over ten times as many rows.
- * Autocorrelations are summed within each segment (never across a seam) and truncated at the first
- * non-positive lag, as in {@link BaselineNoise}.
+ * <p>Single-threaded accumulator, one per pulse; keeps the residuals (a few thousand doubles) and
+ * sums their autocorrelations only when asked, lag by lag, up to the first non-positive one: on
+ * filtered noise that is a handful of lags instead of all {@link BaselineNoise#MAX_LAG}. Why pool:
+ * the holding current is the mean of a few milliseconds of filtered noise, and a standard error
+ * computed from those same rows (about 120 at 50 kHz, some 40 independent ones behind a 10 kHz
+ * filter) scatters by ±15 %, which puts heavy tails on the z-scores and lets a 95 % interval cover
+ * only ~91 %. The residuals of the on- and off-transient fits carry the same noise over ten times
+ * as many rows. Autocorrelations are summed within each segment (never across a seam) and truncated
+ * at the first non-positive lag, as in {@link BaselineNoise}.
  */
 final class ResidualNoise {
-  private final double[] lagSums = new double[BaselineNoise.MAX_LAG + 1];
-  private final long[] lagCounts = new long[BaselineNoise.MAX_LAG + 1];
+  private double[] residuals = new double[4096];
+  private int length;
+  private int[] segmentStarts = new int[4];
+  private int segments;
   private int freeParameters;
 
   /**
@@ -35,47 +39,70 @@ final class ResidualNoise {
     if (n < 2) {
       return;
     }
-    double[] r = new double[n];
-    for (int i = 0; i < n; i++) {
-      double t = (from + i - ref) * dtMs;
-      double model = offset;
-      for (int k = 0; k < amps.length; k++) {
-        model += amps[k] * Math.exp(-t / taus[k]);
-      }
-      r[i] = y[from + i] - model;
+    if (length + n > residuals.length) {
+      residuals = java.util.Arrays.copyOf(residuals, Math.max(2 * residuals.length, length + n));
     }
-    int maxLag = Math.min(BaselineNoise.MAX_LAG, n - 1);
-    for (int k = 0; k <= maxLag; k++) {
-      double c = 0;
-      for (int i = k; i < n; i++) {
-        c += r[i] * r[i - k];
-      }
-      lagSums[k] += c;
-      lagCounts[k] += n - k;
+    if (segments == segmentStarts.length) {
+      segmentStarts = java.util.Arrays.copyOf(segmentStarts, 2 * segments);
+    }
+    segmentStarts[segments++] = length;
+    ExponentialCurve model = new ExponentialCurve(offset, amps, taus, (from - ref) * dtMs, dtMs);
+    for (int i = from; i <= to; i++) {
+      residuals[length++] = y[i] - model.value();
+      model.advance();
     }
     freeParameters += parameters;
   }
 
   /** Standard deviation of the pooled residual, with one degree of freedom per fitted parameter. */
   double sd() {
-    double dof = lagCounts[0] - freeParameters;
-    return dof > 0 ? Math.sqrt(lagSums[0] / dof) : Double.NaN;
+    double dof = length - freeParameters;
+    return dof > 0 ? Math.sqrt(lagSum(0) / dof) : Double.NaN;
   }
 
   /** 1 + 2·Σρ_k of the pooled residual, truncated at the first non-positive lag; at least 1. */
   double varianceInflation() {
-    if (!(lagSums[0] > 0)) {
+    double c0sum = lagSum(0);
+    if (!(c0sum > 0)) {
       return 1;
     }
-    double c0 = lagSums[0] / lagCounts[0];
+    double c0 = c0sum / length;
     double inflation = 1;
-    for (int k = 1; k < lagSums.length && lagCounts[k] > 0; k++) {
-      double rho = lagSums[k] / lagCounts[k] / c0;
+    for (int k = 1; k <= BaselineNoise.MAX_LAG; k++) {
+      long count = lagCount(k);
+      if (count == 0) {
+        break;
+      }
+      double rho = lagSum(k) / count / c0;
       if (rho <= 0) {
         break;
       }
       inflation += 2 * rho;
     }
     return inflation;
+  }
+
+  /** Σ r_i·r_(i−k) within each segment. */
+  private double lagSum(int k) {
+    double sum = 0;
+    for (int s = 0; s < segments; s++) {
+      int start = segmentStarts[s];
+      int end = s + 1 < segments ? segmentStarts[s + 1] : length;
+      for (int i = start + k; i < end; i++) {
+        sum += residuals[i] * residuals[i - k];
+      }
+    }
+    return sum;
+  }
+
+  /** Pairs at lag k within the segments. */
+  private long lagCount(int k) {
+    long count = 0;
+    for (int s = 0; s < segments; s++) {
+      int start = segmentStarts[s];
+      int end = s + 1 < segments ? segmentStarts[s + 1] : length;
+      count += Math.max(0, end - start - k);
+    }
+    return count;
   }
 }

@@ -13,12 +13,12 @@ import org.apache.commons.math3.util.Pair;
 import org.junit.jupiter.api.Test;
 
 /**
- * The pooled transient fit against a plain Commons Math Levenberg–Marquardt fit of every row (the
- * reference library, STACK.md), on a noisy exponential.
+ * The transient fit, closed-form start and all, against a plain Commons Math Levenberg–Marquardt
+ * fit of every row from a generic start (the reference library, STACK.md), on a noisy exponential.
  */
 class TransientFitTest {
   @Test
-  void pooledFitAgreesWithAPlainCommonsMathFitOfEveryRow() {
+  void fitAgreesWithAPlainCommonsMathFitOfEveryRow() {
     int n = 500;
     double dt = 0.02;
     double[] y = new double[n + 1];
@@ -60,14 +60,14 @@ class TransientFitTest {
     double[] p = ref.getPoint().toArray();
     double s2 = ref.getCost() * ref.getCost() / (n - 3);
     double[] se = ref.getSigma(1e-14).mapMultiply(Math.sqrt(s2)).toArray();
-    // Pooling only drops the tail's scatter once e^(−t/τ) < 5e-5: agreement within 5 % of a
-    // standard error on the estimates and 2 % on the standard errors themselves.
-    assertEquals(p[0], r.steadyPa, 0.05 * se[0]);
-    assertEquals(p[1], r.amplitudePa, 0.05 * se[1]);
-    assertEquals(p[2], r.tauMs, 0.05 * se[2]);
-    assertEquals(se[2], Math.sqrt(r.covariance[2][2]), 0.02 * se[2]);
-    assertEquals(se[0], Math.sqrt(r.covariance[0][0]), 0.02 * se[0]);
-    assertEquals(ref.getCost() * ref.getCost(), r.rssPa2, 1e-3 * r.rssPa2);
+    // The same cost minimised from different starts: agreement within 0.1 % of a standard error on
+    // the estimates and 0.01 % on the standard errors themselves.
+    assertEquals(p[0], r.steadyPa, 1e-3 * se[0]);
+    assertEquals(p[1], r.amplitudePa, 1e-3 * se[1]);
+    assertEquals(p[2], r.tauMs, 1e-3 * se[2]);
+    assertEquals(se[2], Math.sqrt(r.covariance[2][2]), 1e-4 * se[2]);
+    assertEquals(se[0], Math.sqrt(r.covariance[0][0]), 1e-4 * se[0]);
+    assertEquals(ref.getCost() * ref.getCost(), r.rssPa2, 1e-8 * r.rssPa2);
   }
 
   @Test
@@ -75,12 +75,10 @@ class TransientFitTest {
     // y = c + A·e^(−t/τ) satisfies y' = −(y − c)/τ exactly; trapezoidal integration at τ/dt = 15
     // leaves an error of order (dt/τ)²/12 ≈ 4e-4 (standard quadrature error).
     int n = 400;
-    double[] t = new double[n];
     double[] y = new double[n];
     for (int k = 0; k < n; k++) {
-      t[k] = 0.02 * (k + 1);
-      y[k] = 12 + 300 * Math.exp(-t[k] / 0.3);
+      y[k] = 12 + 300 * Math.exp(-0.02 * (k + 1) / 0.3);
     }
-    assertEquals(0.3, TransientFit.integralGuessTauMs(t, y), 1e-3 * 0.3);
+    assertEquals(0.3, TransientFit.integralGuessTauMs(y, 0, n - 1, 0.02), 1e-3 * 0.3);
   }
 }
