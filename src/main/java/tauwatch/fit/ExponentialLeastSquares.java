@@ -92,10 +92,6 @@ final class ExponentialLeastSquares {
     ratio = new double[exponentials];
   }
 
-  int rows() {
-    return to - from + 1;
-  }
-
   /** Minimises the cost from {@code start}; the solution is in {@link #x}. */
   Status solve(double[] start, int maxIterations) {
     System.arraycopy(start, 0, x, 0, p);

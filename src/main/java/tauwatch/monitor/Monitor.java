@@ -103,6 +103,10 @@ public final class Monitor {
 
   private MonitorResult runLogged(Duration duration) throws IOException, InterruptedException {
     StreamFormat format = source.format();
+    // Before the source opens and before the session's start time is taken: nothing waits on it.
+    long warmUpStart = System.nanoTime();
+    long warmUpPulses = AnalysisWarmUp.run(format, config);
+    double warmUpS = (System.nanoTime() - warmUpStart) * 1e-9;
     Instant start = Instant.now();
     Path dir = SessionFolder.create(logDir, start, source.name());
     sessionDir = dir;
@@ -117,6 +121,12 @@ public final class Monitor {
     stream.put("filter_cutoff_hz", format.filterCutoffHz());
     stream.put("start_time_s", format.startTimeS());
     info.put("source", source.name()).put("stream", stream).put("configuration", config.asLoaded());
+    if (warmUpPulses > 0) {
+      // Simulated pulses run through a private copy of the analysis before the source opened.
+      info.put(
+          "analysis_warm_up",
+          Map.of("pulses", warmUpPulses, "seconds", Math.round(warmUpS * 1000) / 1000.0));
+    }
     sessionExtras.forEach(info::put);
     info.writeStarted(start);
 

@@ -1,8 +1,8 @@
 package tauwatch.record;
 
-import java.io.BufferedWriter;
 import java.io.Closeable;
 import java.io.IOException;
+import java.io.Writer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -52,16 +52,25 @@ public final class ParamsLog implements Closeable {
   };
 
   private final Path path;
-  private final BufferedWriter out;
+  private final Writer out;
   private final StreamClock clock;
   private final boolean sweepColumns;
   private long rows;
 
   public ParamsLog(Path path, StreamClock clock, boolean sweepColumns) throws IOException {
+    this(path, Files.newBufferedWriter(path, StandardCharsets.UTF_8), clock, sweepColumns);
+  }
+
+  /**
+   * Writes the rows to {@code out} instead of a file; {@code path} only names the log in messages
+   * (the analysis warm-up writes its rows to {@link Writer#nullWriter()}).
+   */
+  public ParamsLog(Path path, Writer out, StreamClock clock, boolean sweepColumns)
+      throws IOException {
     this.path = path;
     this.clock = clock;
     this.sweepColumns = sweepColumns;
-    this.out = Files.newBufferedWriter(path, StandardCharsets.UTF_8);
+    this.out = out;
     out.write(header(sweepColumns));
     out.write('\n');
     out.flush();

@@ -54,6 +54,40 @@ public final class SampleWriter {
     }
   }
 
+  /**
+   * Appends {@code count} samples from {@code command[from..]} and {@code response[from..]} (and
+   * {@code sweepStart[from..]}, or no sweep starts when null), block by block: the same stream as
+   * as many {@link #put} calls, without a call per sample. When the ring is full and this writer
+   * drops, the rest of the call is counted as one overrun.
+   */
+  public void putAll(double[] command, double[] response, byte[] sweepStart, int from, int count) {
+    int i = from;
+    int end = from + count;
+    while (i < end) {
+      if (block == null && !claim()) {
+        int lost = end - i;
+        countOverrun(lost);
+        nextSampleIndex += lost;
+        return;
+      }
+      int at = block.length;
+      int k = Math.min(block.capacity() - at, end - i);
+      System.arraycopy(command, i, block.command, at, k);
+      System.arraycopy(response, i, block.response, at, k);
+      if (sweepStart != null) {
+        System.arraycopy(sweepStart, i, block.sweepStart, at, k);
+      } else {
+        java.util.Arrays.fill(block.sweepStart, at, at + k, (byte) 0);
+      }
+      block.length = at + k;
+      nextSampleIndex += k;
+      i += k;
+      if (block.length == block.capacity()) {
+        publish();
+      }
+    }
+  }
+
   /** Publishes a partly filled block, if any. */
   public void flush() {
     if (block != null) {

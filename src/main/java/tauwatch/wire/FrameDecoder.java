@@ -163,6 +163,11 @@ public final class FrameDecoder implements StreamDecoder {
     return WireFormat.frameBytes(format, channels, samples);
   }
 
+  /** Little-endian int16 straight from the byte array: one load instead of two and a shift. */
+  private static final java.lang.invoke.VarHandle INT16_LE =
+      java.lang.invoke.MethodHandles.byteArrayViewVarHandle(
+          short[].class, java.nio.ByteOrder.LITTLE_ENDIAN);
+
   private void decode(int p) {
     DecodedFrame f = frame;
     f.sampleFormat = buf[p + WireFormat.OFF_FORMAT] & 0xff;
@@ -176,7 +181,7 @@ public final class FrameDecoder implements StreamDecoder {
     double[] v = f.values;
     if (f.sampleFormat == WireFormat.FORMAT_INT16) {
       for (int i = 0; i < n; i++, q += 2) {
-        v[i] = (short) WireFormat.u16(buf, q);
+        v[i] = (short) INT16_LE.get(buf, q);
       }
     } else {
       for (int i = 0; i < n; i++, q += 4) {

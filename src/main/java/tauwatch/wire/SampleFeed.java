@@ -38,6 +38,12 @@ public final class SampleFeed implements FrameSink {
   private final double rateHz;
   private long sampleLimit = Long.MAX_VALUE;
 
+  /** One frame's scaled samples on their way to the ring. */
+  private final double[] cmd = new double[WireFormat.MAX_SAMPLES_PER_FRAME];
+
+  private final double[] resp = new double[WireFormat.MAX_SAMPLES_PER_FRAME];
+  private final byte[] sweep = new byte[WireFormat.MAX_SAMPLES_PER_FRAME];
+
   private long expectedFirst = -1;
   private long lastSequence = -1;
   private boolean triggerHigh = true; // no sweep start on the very first sample
@@ -115,19 +121,22 @@ public final class SampleFeed implements FrameSink {
     }
     final double[] v = f.values;
     final int ch = f.channels;
-    for (int s = 0, n = f.samples; s < n && writer.nextSampleIndex() < sampleLimit; s++) {
+    int n = (int) Math.max(0, Math.min(f.samples, sampleLimit - writer.nextSampleIndex()));
+    double cmdOffset = profile.commandOffset();
+    double respOffset = profile.responseOffset();
+    for (int s = 0; s < n; s++) {
       int base = s * ch;
-      boolean sweep = false;
-      if (trigCh >= 0) {
-        boolean high = v[base + trigCh] >= trigThreshold;
-        sweep = high && !triggerHigh;
+      cmd[s] = v[base + cmdCh] * cmdScale + cmdOffset;
+      resp[s] = v[base + respCh] * respScale + respOffset;
+    }
+    if (trigCh >= 0) {
+      for (int s = 0; s < n; s++) {
+        boolean high = v[s * ch + trigCh] >= trigThreshold;
+        sweep[s] = high && !triggerHigh ? (byte) 1 : (byte) 0;
         triggerHigh = high;
       }
-      writer.put(
-          v[base + cmdCh] * cmdScale + profile.commandOffset(),
-          v[base + respCh] * respScale + profile.responseOffset(),
-          sweep);
     }
+    writer.putAll(cmd, resp, trigCh >= 0 ? sweep : null, 0, n);
     expectedFirst = f.firstSample >= 0 ? (f.firstSample + f.samples) & 0xffffffffL : -1;
     lastFrameNanos = now;
   }

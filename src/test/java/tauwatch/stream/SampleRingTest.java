@@ -111,4 +111,51 @@ class SampleRingTest {
     assertEquals(1, ring.counters().gaps());
     assertEquals(5, ring.counters().gapSamples());
   }
+
+  @Test
+  void bulkPutsGiveTheSameStreamAsSinglePutsAcrossBlockBoundaries() throws Exception {
+    List<double[]> seen = new ArrayList<>();
+    SampleBlockHandler h =
+        (b, seq, end) -> {
+          for (int i = 0; i < b.length; i++) {
+            seen.add(
+                new double[] {
+                  b.firstSampleIndex + i, b.command[i], b.response[i], b.sweepStart[i]
+                });
+          }
+        };
+    SampleRing ring = new SampleRing(64, 32, false, h);
+    ring.start();
+    SampleWriter w = ring.writer();
+    double[] cmd = new double[50];
+    double[] resp = new double[50];
+    byte[] sweep = new byte[50];
+    int k = 0;
+    long expectedSweeps = 0;
+    for (int frame = 0; frame < 40; frame++) {
+      // Frames of 1..50 samples, some with sweep starts, straddling the 32-sample blocks.
+      int n = 1 + (frame * 17) % 50;
+      for (int i = 0; i < n; i++, k++) {
+        cmd[i] = k;
+        resp[i] = -k;
+        sweep[i] = (byte) (k % 23 == 0 ? 1 : 0);
+        if (frame % 2 == 0 && k % 23 == 0) {
+          expectedSweeps++;
+        }
+      }
+      w.putAll(cmd, resp, frame % 2 == 0 ? sweep : null, 0, n);
+    }
+    w.endOfStream();
+    assertTrue(ring.awaitDrainedAndStop(10, TimeUnit.SECONDS));
+    assertEquals(k, seen.size());
+    for (int i = 0; i < k; i++) {
+      double[] row = seen.get(i);
+      assertEquals(i, row[0]);
+      assertEquals(i, row[1]);
+      assertEquals(-i, row[2]);
+    }
+    long sweeps = seen.stream().filter(r -> r[3] != 0).count();
+    assertEquals(expectedSweeps, sweeps, "sweep starts only where the even frames had them");
+    assertEquals(k, ring.counters().samplesReceived());
+  }
 }
