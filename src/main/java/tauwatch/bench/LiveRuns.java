@@ -213,7 +213,7 @@ public final class LiveRuns {
             String.format(
                 Locale.ROOT, "%.4f bytes/sample", s.sourceBytes() / (double) s.windowSamples()))
         .row(
-            "analysis (ring → segmenter → fit → health → logs → LiveModel)",
+            "analysis (ring → segmenter → fit → health → LiveModel; rows to the log thread)",
             f0(s.analysisBytes() / s.windowS()),
             String.format(
                 Locale.ROOT,

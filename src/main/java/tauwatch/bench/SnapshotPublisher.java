@@ -39,6 +39,12 @@ final class SnapshotPublisher implements EstimateListener {
     this.warmUpPulses = warmUpPulses;
   }
 
+  /** A publisher nobody reads, for the analysis warm-up. */
+  @Override
+  public EstimateListener warmUpTwin() {
+    return new SnapshotPublisher(0);
+  }
+
   @Override
   public void onEstimate(PulseEstimate e, HealthSnapshot health) {
     analysisThreadId = Thread.currentThread().getId();

@@ -4,6 +4,7 @@ import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.io.Writer;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
@@ -34,9 +35,10 @@ import tauwatch.stream.StreamFormat;
  * µs.
  *
  * <p>The simulated cell runs at the stream's rate, filter and clamp mode through a fresh segmenter,
- * estimator, screen and health rules, and a params log that writes nowhere: nothing reaches the
- * session's logs, listeners or state. Once per clamp mode per JVM (compiled code stays), bounded in
- * pulses and in time. Called on the thread that starts the session; allocates freely.
+ * estimator, screen and health rules, a params log that writes nowhere, and fresh twins of the
+ * session's listeners: nothing reaches the session's logs, listeners or state. Once per clamp mode
+ * per JVM (compiled code stays), bounded in pulses and in time. Called on the thread that starts
+ * the session; allocates freely.
  */
 final class AnalysisWarmUp {
   /** Pulses analysed per clamp mode: enough for the optimising compiler's call thresholds. */
@@ -50,22 +52,31 @@ final class AnalysisWarmUp {
   private AnalysisWarmUp() {}
 
   /**
-   * Warms the per-pulse path for {@code format}'s clamp mode unless this JVM already has; returns
-   * the pulses analysed (0 when already warm, or when the simulator cannot produce this format,
-   * which only makes the first pulses slower).
+   * Warms the per-pulse path for {@code format}'s clamp mode, with the twins of the session's
+   * listeners ({@link EstimateListener#warmUpTwin}), unless this JVM already has; returns the
+   * pulses analysed (0 when already warm, or when the simulator cannot produce this format, which
+   * only makes the first pulses slower).
    */
-  static long run(StreamFormat format, MonitorConfig config) {
+  static long run(StreamFormat format, MonitorConfig config, List<EstimateListener> listeners) {
     if (!WARMED.add(format.mode())) {
       return 0;
     }
-    return analyse(format, config, PULSES).pulses();
+    List<EstimateListener> twins = new ArrayList<>();
+    for (EstimateListener l : listeners) {
+      EstimateListener twin = l.warmUpTwin();
+      if (twin != null) {
+        twins.add(twin);
+      }
+    }
+    return analyse(format, config, PULSES, twins).pulses();
   }
 
   /** Pulses cut and pulses accepted by the warm-up's private analysis. */
   record Outcome(long pulses, long accepted) {}
 
   /** Runs up to {@code pulses} simulated pulses through a private analysis (no once-guard). */
-  static Outcome analyse(StreamFormat format, MonitorConfig config, int pulses) {
+  static Outcome analyse(
+      StreamFormat format, MonitorConfig config, int pulses, List<EstimateListener> listeners) {
     SegmenterOptions segmenter = config.segmenterFor(format.mode());
     Scenario scenario;
     try {
@@ -90,20 +101,28 @@ final class AnalysisWarmUp {
             log,
             discard,
             clock,
-            List.of());
+            listeners);
     PulseSegmenter cutter = new PulseSegmenter(recording.format(), segmenter, analysis, discard);
     SampleBlock block = new SampleBlock();
     long deadline = System.nanoTime() + MAX_NANOS;
     long index = 0;
     long sequence = 0;
-    while (analysis.pulses() < pulses && System.nanoTime() < deadline) {
-      block.clear();
-      int n = block.capacity();
-      recording.fill(block.command, block.response, 0, n);
-      block.length = n;
-      block.firstSampleIndex = index;
-      index += n;
-      cutter.onBlock(block, sequence++, true);
+    try {
+      while (analysis.pulses() < pulses && System.nanoTime() < deadline) {
+        block.clear();
+        int n = block.capacity();
+        recording.fill(block.command, block.response, 0, n);
+        block.length = n;
+        block.firstSampleIndex = index;
+        index += n;
+        cutter.onBlock(block, sequence++, true);
+      }
+    } finally {
+      try {
+        log.close();
+      } catch (IOException e) {
+        // A null writer does not fail.
+      }
     }
     return new Outcome(analysis.pulses(), analysis.accepted());
   }

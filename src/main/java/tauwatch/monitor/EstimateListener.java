@@ -22,4 +22,14 @@ public interface EstimateListener {
   default void onPulseEstimate(PulseWindow window, PulseEstimate estimate, HealthSnapshot health) {
     onEstimate(estimate, health);
   }
+
+  /**
+   * A fresh instance of this listener's class, connected to nothing, for the analysis warm-up
+   * ({@link AnalysisWarmUp}) to drive with simulated pulses so that this listener's per-pulse code
+   * is compiled before the first real pulse too; null (the default) when there is nothing worth
+   * warming or no copy without side effects.
+   */
+  default EstimateListener warmUpTwin() {
+    return null;
+  }
 }

@@ -105,7 +105,7 @@ public final class Monitor {
     StreamFormat format = source.format();
     // Before the source opens and before the session's start time is taken: nothing waits on it.
     long warmUpStart = System.nanoTime();
-    long warmUpPulses = AnalysisWarmUp.run(format, config);
+    long warmUpPulses = AnalysisWarmUp.run(format, config, listeners);
     double warmUpS = (System.nanoTime() - warmUpStart) * 1e-9;
     Instant start = Instant.now();
     Path dir = SessionFolder.create(logDir, start, source.name());

@@ -24,7 +24,8 @@ class AnalysisWarmUpTest {
   void simulatedPulsesAreCutAndAcceptedAtTheStreamsFormat(
       ClampMode mode, double rateHz, double cutoffHz) {
     StreamFormat format = new StreamFormat(rateHz, mode, cutoffHz, 0, "test");
-    AnalysisWarmUp.Outcome o = AnalysisWarmUp.analyse(format, MonitorConfig.defaults(), 200);
+    AnalysisWarmUp.Outcome o =
+        AnalysisWarmUp.analyse(format, MonitorConfig.defaults(), 200, java.util.List.of());
     assertEquals(200, o.pulses());
     assertTrue(o.accepted() >= 190, "accepted " + o.accepted() + " of 200");
   }

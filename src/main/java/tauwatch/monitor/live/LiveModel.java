@@ -85,6 +85,17 @@ public final class LiveModel implements EstimateListener, EventSink {
     onPulse(null, estimate, health);
   }
 
+  /** A model nobody reads, with a small trend ring (the warm-up wraps it, as a day would). */
+  @Override
+  public EstimateListener warmUpTwin() {
+    return new LiveModel(
+        sourceName,
+        format,
+        criteria,
+        new TrendHistory(4 * TrendHistory.READ_SLACK_ROWS),
+        average.capacity());
+  }
+
   @Override
   public void onPulseEstimate(PulseWindow window, PulseEstimate estimate, HealthSnapshot health) {
     onPulse(window, estimate, health);
