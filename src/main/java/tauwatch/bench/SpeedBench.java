@@ -80,10 +80,14 @@ public final class SpeedBench {
     if (sections.contains("decoder")) {
       decoder();
     }
+    boolean ok = true;
     if (sections.contains("fit")) {
-      segmenterAndFit();
+      ok &= segmenterAndFit();
     }
-    return !sections.contains("chain") || chain();
+    if (sections.contains("chain")) {
+      ok &= chain();
+    }
+    return ok;
   }
 
   // ---------------------------------------------------------------- decoder
@@ -184,7 +188,7 @@ public final class SpeedBench {
 
   // ---------------------------------------------------------- segmenter, fit
 
-  void segmenterAndFit() throws Exception {
+  boolean segmenterAndFit() throws Exception {
     Table seg =
         new Table(
             "Pulse segmenter: µs of segmenting per pulse (one 500 ms pulse period of samples)",
@@ -201,14 +205,26 @@ public final class SpeedBench {
             "Tauwatch µs/pulse",
             "naive µs/pulse (mono, fixed start)",
             "× naive");
+    double slowestUs = 0;
     for (double rate : new double[] {20_000, 50_000, 100_000}) {
       segmenterRow(seg, rate);
-      fitRow(fit, rate, "steady-cell");
-      fitRow(fit, rate, "dendritic-cell");
+      slowestUs = Math.max(slowestUs, fitRow(fit, rate, "steady-cell"));
+      slowestUs = Math.max(slowestUs, fitRow(fit, rate, "dendritic-cell"));
     }
     seg.print(out);
     fit.print(out);
+    boolean ok = slowestUs < FIT_TARGET_US;
+    out.printf(
+        Locale.ROOT,
+        "target: every per-pulse fit under %.0f µs %s (slowest %.0f µs)%n",
+        FIT_TARGET_US,
+        ok ? "met" : "MISSED",
+        slowestUs);
+    return ok;
   }
+
+  /** DESIGN.md: per pulse, fitting must stay well under 1 ms. */
+  static final double FIT_TARGET_US = 1000;
 
   private void segmenterRow(Table t, double rate) throws Exception {
     Scenario sc = BenchScenarios.load("steady-cell", rate, 0, 0);
@@ -279,7 +295,8 @@ public final class SpeedBench {
         f1(naive / product));
   }
 
-  private void fitRow(Table t, double rate, String cell) throws Exception {
+  /** Adds one row; returns the product's µs per pulse. */
+  private double fitRow(Table t, double rate, String cell) throws Exception {
     Scenario sc = BenchScenarios.load(cell, rate, 0, 0);
     SimulatedPulseTrain train = new SimulatedPulseTrain(sc, 5, 3.0, 20.0);
     int distinct = 40;
@@ -342,6 +359,7 @@ public final class SpeedBench {
         f1(product / distinct * 1e6),
         f1(naiveS / distinct * 1e6),
         f1(naiveS / product));
+    return product / distinct * 1e6;
   }
 
   // ------------------------------------------------------------ whole chain
@@ -363,7 +381,8 @@ public final class SpeedBench {
     }
     int naiveRounds = Math.max(1, rounds / 2);
     double[] naiveS = new double[naiveRounds];
-    NaivePipeline.Result naive = null;
+    // An untimed round for the naive pipeline too, so that both columns are measured warm.
+    NaivePipeline.Result naive = NaivePipeline.run(capture, workDir.resolve("naive-warm-up.csv"));
     for (int i = 0; i < naiveRounds; i++) {
       naive = NaivePipeline.run(capture, workDir.resolve("naive-params-" + i + ".csv"));
       naiveS[i] = naive.seconds();
@@ -406,8 +425,22 @@ public final class SpeedBench {
             Long.toString(naive.pulses()),
             "1.0")
         .print(out);
-    return agreement(p.estimates(), naive.estimates());
+    boolean fast = pRate >= CHAIN_TARGET_SAMPLES_PER_S;
+    boolean faster = pRate >= CHAIN_TARGET_TIMES_NAIVE * nRate;
+    out.printf(
+        Locale.ROOT,
+        "targets: ≥ %.0f M samples/s %s; ≥ %.0f× the naive pipeline %s%n",
+        CHAIN_TARGET_SAMPLES_PER_S / 1e6,
+        fast ? "met" : "MISSED",
+        CHAIN_TARGET_TIMES_NAIVE,
+        faster ? "met" : "MISSED");
+    return agreement(p.estimates(), naive.estimates()) & fast & faster;
   }
+
+  /** The whole-chain targets: 500× real time for 2 ch at 50 kHz, and 10× the naive. */
+  static final double CHAIN_TARGET_SAMPLES_PER_S = 50e6;
+
+  static final double CHAIN_TARGET_TIMES_NAIVE = 10;
 
   /** The naive estimates agree with the product's pulse by pulse, within the stated tolerances. */
   private boolean agreement(List<PulseEstimate> product, List<NaiveEstimate> naive) {

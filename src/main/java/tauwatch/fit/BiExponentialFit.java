@@ -18,8 +18,8 @@ final class BiExponentialFit {
   static final int A2 = 3;
   static final int T2 = 4;
 
-  private static final double[] FAST_GRID = {0.1, 0.2, 0.35, 0.55, 0.8};
-  private static final double[] SLOW_GRID = {1.3, 2, 3, 4.5, 7, 11, 17, 26};
+  static final double[] FAST_GRID = {0.1, 0.2, 0.35, 0.55, 0.8};
+  static final double[] SLOW_GRID = {1.3, 2, 3, 4.5, 7, 11, 17, 26};
 
   private BiExponentialFit() {}
 
@@ -41,20 +41,7 @@ final class BiExponentialFit {
     int n = to - from + 1;
     r.samples = n;
     double t0 = (from - ref) * dtMs;
-    double[] best = null;
-    double bestRss = Double.POSITIVE_INFINITY;
-    double[] lin = new double[3];
-    for (double f : FAST_GRID) {
-      for (double s : SLOW_GRID) {
-        double t1 = f * monoTauMs;
-        double t2 = s * monoTauMs;
-        double rss = linear(y, from, to, t0, dtMs, t1, t2, lin);
-        if (rss < bestRss) {
-          bestRss = rss;
-          best = new double[] {lin[0], lin[1], t1, lin[2], t2};
-        }
-      }
-    }
+    double[] best = gridStart(y, from, to, t0, dtMs, monoTauMs);
     if (best == null) {
       r.failure = "two-exponential start not found";
       return r;
@@ -89,6 +76,70 @@ final class BiExponentialFit {
   }
 
   /**
+   * The grid pair (τ₁, τ₂) = (f·τ, s·τ) with the least residual and its linear offset and
+   * amplitudes, as (I_ss, A₁, τ₁, A₂, τ₂); null when every pair's normal equations are singular.
+   * One pass over the rows serves every pair: each grid τ's sums are shared by the pairs that use
+   * it, only Σe₁e₂ is per pair.
+   */
+  static double[] gridStart(double[] y, int from, int to, double t0, double dt, double monoTauMs) {
+    int nf = FAST_GRID.length;
+    int ns = SLOW_GRID.length;
+    int m = nf + ns;
+    double[] q = new double[m];
+    double[] e = new double[m];
+    double[] se = new double[m];
+    double[] see = new double[m];
+    double[] sey = new double[m];
+    double[] cross = new double[nf * ns];
+    for (int k = 0; k < m; k++) {
+      double tau = (k < nf ? FAST_GRID[k] : SLOW_GRID[k - nf]) * monoTauMs;
+      q[k] = Math.exp(-dt / tau);
+      e[k] = Math.exp(-t0 / tau);
+    }
+    double sy = 0;
+    double syy = 0;
+    for (int i = from; i <= to; i++) {
+      double v = y[i];
+      sy += v;
+      syy += v * v;
+      for (int f = 0; f < nf; f++) {
+        double ef = e[f];
+        int row = f * ns;
+        for (int g = 0; g < ns; g++) {
+          cross[row + g] += ef * e[nf + g];
+        }
+      }
+      for (int k = 0; k < m; k++) {
+        double ek = e[k];
+        se[k] += ek;
+        see[k] += ek * ek;
+        sey[k] += ek * v;
+        e[k] = ek * q[k];
+      }
+    }
+    int n = to - from + 1;
+    double[] lin = new double[3];
+    double[] best = null;
+    double bestRss = Double.POSITIVE_INFINITY;
+    for (int f = 0; f < nf; f++) {
+      for (int g = 0; g < ns; g++) {
+        int b = nf + g;
+        double rss =
+            solve3(
+                n, se[f], se[b], see[f], see[b], cross[f * ns + g], sy, sey[f], sey[b], syy, lin);
+        if (rss < bestRss) {
+          bestRss = rss;
+          best =
+              new double[] {
+                lin[0], lin[1], FAST_GRID[f] * monoTauMs, lin[2], SLOW_GRID[g] * monoTauMs
+              };
+        }
+      }
+    }
+    return best;
+  }
+
+  /**
    * Least-squares offset and amplitudes for fixed time constants into {@code out} (I_ss, A₁, A₂);
    * returns the residual sum of squares, or +∞ when the normal equations are singular.
    */
@@ -113,8 +164,25 @@ final class BiExponentialFit {
       sy2 += v * e2;
       syy += v * v;
     }
-    // Cramer's rule on the symmetric 3×3 normal equations [[n, s1, s2], [s1, s11, s12],
-    // [s2, s12, s22]]·β = [sy, sy1, sy2].
+    return solve3(n, s1, s2, s11, s22, s12, sy, sy1, sy2, syy, out);
+  }
+
+  /**
+   * Cramer's rule on the symmetric 3×3 normal equations [[n, s1, s2], [s1, s11, s12], [s2, s12,
+   * s22]]·β = [sy, sy1, sy2] into {@code out}; returns RSS = yᵀy − βᵀXᵀy, or +∞ when singular.
+   */
+  private static double solve3(
+      double n,
+      double s1,
+      double s2,
+      double s11,
+      double s22,
+      double s12,
+      double sy,
+      double sy1,
+      double sy2,
+      double syy,
+      double[] out) {
     double c00 = s11 * s22 - s12 * s12;
     double c01 = s1 * s22 - s12 * s2;
     double c02 = s1 * s12 - s11 * s2;
@@ -125,7 +193,6 @@ final class BiExponentialFit {
     out[0] = (sy * c00 - s1 * (sy1 * s22 - s12 * sy2) + s2 * (sy1 * s12 - s11 * sy2)) / det;
     out[1] = (n * (sy1 * s22 - s12 * sy2) - sy * c01 + s2 * (s1 * sy2 - sy1 * s2)) / det;
     out[2] = (n * (s11 * sy2 - sy1 * s12) - s1 * (s1 * sy2 - sy1 * s2) + sy * c02) / det;
-    // RSS = yᵀy − βᵀXᵀy for the least-squares β.
     return syy - (out[0] * sy + out[1] * sy1 + out[2] * sy2);
   }
 }

@@ -53,7 +53,6 @@ final class ExponentialLeastSquares {
   private final double[] trial;
   private final double[] step;
   private final double[] system;
-  private final double[] row;
   private final double[] amps;
   private final double[] taus;
   private final double[] decay;
@@ -85,7 +84,6 @@ final class ExponentialLeastSquares {
     trial = new double[p];
     step = new double[p];
     system = new double[p * p];
-    row = new double[p];
     amps = new double[exponentials];
     taus = new double[exponentials];
     decay = new double[exponentials];
@@ -205,33 +203,63 @@ final class ExponentialLeastSquares {
       jtr[2] = g3;
       return sum;
     }
+    // Two exponentials, unrolled: 5 parameters (I_ss, A₁, τ₁, A₂, τ₂), 15 distinct products.
+    double a1 = amps[0];
+    double a2 = amps[1];
+    double k1 = a1 / (taus[0] * taus[0]);
+    double k2 = a2 / (taus[1] * taus[1]);
+    double q1 = ratio[0];
+    double q2 = ratio[1];
+    double e1 = decay[0];
+    double e2 = decay[1];
+    double s00 = 0, s01 = 0, s02 = 0, s03 = 0, s04 = 0;
+    double s11 = 0, s12 = 0, s13 = 0, s14 = 0;
+    double s22 = 0, s23 = 0, s24 = 0;
+    double s33 = 0, s34 = 0;
+    double s44 = 0;
+    double g0 = 0, g1 = 0, g2 = 0, g3 = 0, g4 = 0;
     for (int i = from; i <= to; i++) {
       double t = t0 + (i - from) * dt;
-      double f = offset;
-      row[0] = 1;
-      for (int j = 0; j < exponentials; j++) {
-        double e = decay[j];
-        f += amps[j] * e;
-        row[1 + 2 * j] = e;
-        row[2 + 2 * j] = amps[j] * e * t / (taus[j] * taus[j]);
-        decay[j] = e * ratio[j];
-      }
-      double r = y[i] - f;
+      double d1 = k1 * e1 * t;
+      double d2 = k2 * e2 * t;
+      double r = y[i] - (offset + a1 * e1 + a2 * e2);
       sum += r * r;
-      for (int u = 0; u < p; u++) {
-        double ru = row[u];
-        jtr[u] += ru * r;
-        int base = u * p;
-        for (int v = 0; v <= u; v++) {
-          jtj[base + v] += ru * row[v];
-        }
+      s00 += 1;
+      s01 += e1;
+      s02 += d1;
+      s03 += e2;
+      s04 += d2;
+      s11 += e1 * e1;
+      s12 += e1 * d1;
+      s13 += e1 * e2;
+      s14 += e1 * d2;
+      s22 += d1 * d1;
+      s23 += d1 * e2;
+      s24 += d1 * d2;
+      s33 += e2 * e2;
+      s34 += e2 * d2;
+      s44 += d2 * d2;
+      g0 += r;
+      g1 += e1 * r;
+      g2 += d1 * r;
+      g3 += e2 * r;
+      g4 += d2 * r;
+      e1 *= q1;
+      e2 *= q2;
+    }
+    double[] upper = {s00, s01, s02, s03, s04, s11, s12, s13, s14, s22, s23, s24, s33, s34, s44};
+    int k = 0;
+    for (int u = 0; u < 5; u++) {
+      for (int v = u; v < 5; v++, k++) {
+        jtj[u * 5 + v] = upper[k];
+        jtj[v * 5 + u] = upper[k];
       }
     }
-    for (int u = 0; u < p; u++) {
-      for (int v = 0; v < u; v++) {
-        jtj[v * p + u] = jtj[u * p + v];
-      }
-    }
+    jtr[0] = g0;
+    jtr[1] = g1;
+    jtr[2] = g2;
+    jtr[3] = g3;
+    jtr[4] = g4;
     return sum;
   }
 

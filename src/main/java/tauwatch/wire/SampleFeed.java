@@ -122,13 +122,6 @@ public final class SampleFeed implements FrameSink {
     final double[] v = f.values;
     final int ch = f.channels;
     int n = (int) Math.max(0, Math.min(f.samples, sampleLimit - writer.nextSampleIndex()));
-    double cmdOffset = profile.commandOffset();
-    double respOffset = profile.responseOffset();
-    for (int s = 0; s < n; s++) {
-      int base = s * ch;
-      cmd[s] = v[base + cmdCh] * cmdScale + cmdOffset;
-      resp[s] = v[base + respCh] * respScale + respOffset;
-    }
     if (trigCh >= 0) {
       for (int s = 0; s < n; s++) {
         boolean high = v[s * ch + trigCh] >= trigThreshold;
@@ -141,6 +134,7 @@ public final class SampleFeed implements FrameSink {
     lastFrameNanos = now;
   }
 
+  /** Checks the frame against the profile and, when it fits, scales it into the scratch. */
   private boolean contradictsProfile(DecodedFrame f) {
     if (f.channels != profile.channels()) {
       return mismatch(Mismatch.CHANNELS, f.channels);
@@ -151,14 +145,25 @@ public final class SampleFeed implements FrameSink {
     if (f.sampleRateHz > 0 && Math.abs(f.sampleRateHz - rateHz) > 1e-4 * rateHz) {
       return mismatch(Mismatch.SAMPLE_RATE, f.sampleRateHz);
     }
+    // Scaled into the frame's scratch on the way, so the samples are read once.
+    final double[] v = f.values;
+    final int ch = f.channels;
+    final double cmdOffset = profile.commandOffset();
+    final double respOffset = profile.responseOffset();
     if (rawLimit < Double.POSITIVE_INFINITY) {
-      final double[] v = f.values;
-      for (int s = 0, n = f.samples, ch = f.channels; s < n; s++) {
+      for (int s = 0, n = f.samples; s < n; s++) {
         double c = v[s * ch + cmdCh];
         double r = v[s * ch + respCh];
         if (!(Math.abs(c) <= rawLimit) || !(Math.abs(r) <= rawLimit)) {
           return mismatch(Mismatch.RANGE, Math.abs(c) > Math.abs(r) ? c : r);
         }
+        cmd[s] = c * cmdScale + cmdOffset;
+        resp[s] = r * respScale + respOffset;
+      }
+    } else {
+      for (int s = 0, n = f.samples; s < n; s++) {
+        cmd[s] = v[s * ch + cmdCh] * cmdScale + cmdOffset;
+        resp[s] = v[s * ch + respCh] * respScale + respOffset;
       }
     }
     return false;

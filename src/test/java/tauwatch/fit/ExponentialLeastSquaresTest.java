@@ -76,6 +76,30 @@ class ExponentialLeastSquaresTest {
         ExponentialLeastSquares.Status.CONVERGED, lsq.solve(new double[] {12.5, 0, 0.3}, 100));
   }
 
+  @Test
+  void gridStartIsThePairWithTheLeastResidualOfAllPairs() {
+    // The one-pass grid (sums shared between pairs) against solving every pair on its own.
+    double dt = 0.02;
+    double[] y = curve(600, dt, 0, new double[] {-500, -150}, new double[] {0.2, 2.0}, -10, 2, 12L);
+    double monoTau = 0.6;
+    double[] best = BiExponentialFit.gridStart(y, 4, 600, 4 * dt, dt, monoTau);
+    double bestRss = Double.POSITIVE_INFINITY;
+    double[] bestPair = null;
+    double[] lin = new double[3];
+    for (double f : BiExponentialFit.FAST_GRID) {
+      for (double g : BiExponentialFit.SLOW_GRID) {
+        double rss = BiExponentialFit.linear(y, 4, 600, 4 * dt, dt, f * monoTau, g * monoTau, lin);
+        if (rss < bestRss) {
+          bestRss = rss;
+          bestPair = new double[] {lin[0], lin[1], f * monoTau, lin[2], g * monoTau};
+        }
+      }
+    }
+    for (int k = 0; k < 5; k++) {
+      assertEquals(bestPair[k], best[k], 1e-9 * Math.max(1, Math.abs(bestPair[k])), "entry " + k);
+    }
+  }
+
   /** Rows 0..n of offset + Σ a·e^(−t/τ) + noise, t = row·dt; fitting starts at row {@code from}. */
   private static double[] curve(
       int n,
