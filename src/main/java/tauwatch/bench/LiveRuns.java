@@ -81,6 +81,9 @@ public final class LiveRuns {
    * of the run (after warm-up, before the end).
    */
   Session paced(Scenario sc, double seconds, long slowListenerMs, String tag) throws Exception {
+    // The sections before leave their captures and estimates as garbage: a watch session starts
+    // on a clean heap, and so does each measured one.
+    System.gc();
     SimulatedSource src = new SimulatedSource(new SimulatedRecording(sc, 17), true);
     MonitorConfig config = MonitorConfig.defaults();
     Monitor m =

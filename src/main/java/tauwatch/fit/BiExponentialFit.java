@@ -47,7 +47,10 @@ final class BiExponentialFit {
       return r;
     }
     double floorMs = 1e-3 * dtMs;
-    ExponentialLeastSquares lsq = new ExponentialLeastSquares(y, from, to, ref, dtMs, 2, floorMs);
+    // Pooled past 10 slow time constants of the start, as in the one-exponential fit.
+    int head = (int) Math.min(n, Math.ceil(TransientFit.POOL_AFTER_TAUS * best[T2] / dtMs));
+    ExponentialLeastSquares lsq =
+        new ExponentialLeastSquares(y, from, to, ref, dtMs, 2, floorMs, n - head);
     ExponentialLeastSquares.Status status = lsq.solve(best, maxIterations);
     if (status == ExponentialLeastSquares.Status.NOT_CONVERGED) {
       r.failure = "two-exponential fit did not converge";

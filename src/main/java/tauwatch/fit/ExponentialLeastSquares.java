@@ -58,12 +58,41 @@ final class ExponentialLeastSquares {
   private final double[] decay;
   private final double[] ratio;
 
+  /** The last row fitted one by one; rows after it, up to {@code to}, are pooled. */
+  private final int last;
+
+  private final int pooled;
+  private final double pooledMean;
+  private final double pooledScatter;
+  private final double poolWeight;
+  private final double[] row;
+
   /**
    * Fits rows {@code from..to} (inclusive) of {@code y}, row {@code ref} at time 0, rows {@code dt}
    * apart, with {@code exponentials} (1 or 2) components; τ is kept above {@code tauFloor}.
    */
   ExponentialLeastSquares(
       double[] y, int from, int to, int ref, double dt, int exponentials, double tauFloor) {
+    this(y, from, to, ref, dt, exponentials, tauFloor, 0);
+  }
+
+  /**
+   * As above, with the last {@code pooledRows} rows pooled into one observation: their mean,
+   * weighted by their count, against the model's exact mean over them. Where the transient has
+   * decayed (e^(−t/τ) below ~10⁻⁴) the rows' scatter about their mean carries no information about
+   * the parameters, so pooling changes the fit only in the noise's last digits while it saves the
+   * Jacobian products of those rows (most of a long steady state). The reported {@link #rss}
+   * includes the pooled rows' scatter.
+   */
+  ExponentialLeastSquares(
+      double[] y,
+      int from,
+      int to,
+      int ref,
+      double dt,
+      int exponentials,
+      double tauFloor,
+      int pooledRows) {
     if (exponentials < 1 || exponentials > 2) {
       throw new IllegalArgumentException("one or two exponentials, not " + exponentials);
     }
@@ -88,6 +117,24 @@ final class ExponentialLeastSquares {
     taus = new double[exponentials];
     decay = new double[exponentials];
     ratio = new double[exponentials];
+    row = new double[p];
+    pooled = pooledRows >= 2 && to - from + 1 - pooledRows >= 2 * p ? pooledRows : 0;
+    last = to - pooled;
+    double mean = 0;
+    double scatter = 0;
+    if (pooled > 0) {
+      for (int i = last + 1; i <= to; i++) {
+        mean += y[i];
+      }
+      mean /= pooled;
+      for (int i = last + 1; i <= to; i++) {
+        double d = y[i] - mean;
+        scatter += d * d;
+      }
+    }
+    pooledMean = mean;
+    pooledScatter = scatter;
+    poolWeight = Math.sqrt(pooled);
   }
 
   /** Minimises the cost from {@code start}; the solution is in {@link #x}. */
@@ -176,7 +223,7 @@ final class ExponentialLeastSquares {
       double q = ratio[0];
       double e = decay[0];
       double s11 = 0, s12 = 0, s13 = 0, s22 = 0, s23 = 0, s33 = 0, g1 = 0, g2 = 0, g3 = 0;
-      for (int i = from; i <= to; i++) {
+      for (int i = from; i <= last; i++) {
         double t = t0 + (i - from) * dt;
         double dTau = a * e * t * invTau2;
         double r = y[i] - (offset + a * e);
@@ -201,7 +248,8 @@ final class ExponentialLeastSquares {
       jtr[0] = g1;
       jtr[1] = g2;
       jtr[2] = g3;
-      return sum;
+      decay[0] = e;
+      return sum + pooledRow(offset, jtj, jtr);
     }
     // Two exponentials, unrolled: 5 parameters (I_ss, A₁, τ₁, A₂, τ₂), 15 distinct products.
     double a1 = amps[0];
@@ -218,7 +266,7 @@ final class ExponentialLeastSquares {
     double s33 = 0, s34 = 0;
     double s44 = 0;
     double g0 = 0, g1 = 0, g2 = 0, g3 = 0, g4 = 0;
-    for (int i = from; i <= to; i++) {
+    for (int i = from; i <= last; i++) {
       double t = t0 + (i - from) * dt;
       double d1 = k1 * e1 * t;
       double d2 = k2 * e2 * t;
@@ -260,7 +308,50 @@ final class ExponentialLeastSquares {
     jtr[2] = g2;
     jtr[3] = g3;
     jtr[4] = g4;
-    return sum;
+    decay[0] = e1;
+    decay[1] = e2;
+    return sum + pooledRow(offset, jtj, jtr);
+  }
+
+  /**
+   * Adds the pooled rows' one weighted observation to JᵀJ and Jᵀr; returns its squared residual
+   * plus the pooled rows' scatter. {@link #decay} holds each e^(−t/τ) at the first pooled row; the
+   * means over the pooled rows are summed by the same recurrence (a few operations per row instead
+   * of the Jacobian's products).
+   */
+  private double pooledRow(double offset, double[] jtj, double[] jtr) {
+    if (pooled == 0) {
+      return 0;
+    }
+    double tStart = t0 + (last + 1 - from) * dt;
+    double f = offset;
+    row[0] = poolWeight;
+    for (int j = 0; j < exponentials; j++) {
+      double e = decay[j];
+      double q = ratio[j];
+      double t = tStart;
+      double sumE = 0;
+      double sumTe = 0;
+      for (int k = 0; k < pooled; k++) {
+        sumE += e;
+        sumTe += t * e;
+        e *= q;
+        t += dt;
+      }
+      double meanE = sumE / pooled;
+      double meanTe = sumTe / pooled;
+      f += amps[j] * meanE;
+      row[1 + 2 * j] = poolWeight * meanE;
+      row[2 + 2 * j] = poolWeight * amps[j] * meanTe / (taus[j] * taus[j]);
+    }
+    double r = poolWeight * (pooledMean - f);
+    for (int u = 0; u < p; u++) {
+      jtr[u] += row[u] * r;
+      for (int v = 0; v < p; v++) {
+        jtj[u * p + v] += row[u] * row[v];
+      }
+    }
+    return r * r + pooledScatter;
   }
 
   /** Solves (JᵀJ + λ·diag(JᵀJ))·step = Jᵀr by Cholesky; false when not positive definite. */

@@ -37,8 +37,8 @@ import tauwatch.stream.StreamFormat;
  * <p>The simulated cell runs at the stream's rate, filter and clamp mode through a fresh segmenter,
  * estimator, screen and health rules, a params log that writes nowhere, and fresh twins of the
  * session's listeners: nothing reaches the session's logs, listeners or state. Once per clamp mode
- * per JVM (compiled code stays), bounded in pulses and in time. Called on the thread that starts
- * the session; allocates freely.
+ * and listener class per JVM (compiled code stays), bounded in pulses and in time. Called on the
+ * thread that starts the session; allocates freely.
  */
 final class AnalysisWarmUp {
   /** Pulses analysed per clamp mode: enough for the optimising compiler's call thresholds. */
@@ -47,7 +47,8 @@ final class AnalysisWarmUp {
   /** Upper bound on the warm-up's wall time, whatever the stream's rate. */
   static final long MAX_NANOS = 4_000_000_000L;
 
-  private static final Set<ClampMode> WARMED = ConcurrentHashMap.newKeySet();
+  /** Clamp modes, and mode + listener class, warmed in this JVM. */
+  private static final Set<String> WARMED = ConcurrentHashMap.newKeySet();
 
   private AnalysisWarmUp() {}
 
@@ -58,17 +59,16 @@ final class AnalysisWarmUp {
    * only makes the first pulses slower).
    */
   static long run(StreamFormat format, MonitorConfig config, List<EstimateListener> listeners) {
-    if (!WARMED.add(format.mode())) {
-      return 0;
-    }
     List<EstimateListener> twins = new ArrayList<>();
+    boolean anyNew = WARMED.add(format.mode().code());
     for (EstimateListener l : listeners) {
       EstimateListener twin = l.warmUpTwin();
       if (twin != null) {
         twins.add(twin);
+        anyNew |= WARMED.add(format.mode().code() + " " + twin.getClass().getName());
       }
     }
-    return analyse(format, config, PULSES, twins).pulses();
+    return anyNew ? analyse(format, config, PULSES, twins).pulses() : 0;
   }
 
   /** Pulses cut and pulses accepted by the warm-up's private analysis. */

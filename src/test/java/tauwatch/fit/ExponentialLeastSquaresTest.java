@@ -77,6 +77,28 @@ class ExponentialLeastSquaresTest {
   }
 
   @Test
+  void poolingTheDecayedTailChangesTheFitOnlyWithinTheNoise() {
+    // τ = 0.3 ms over 20 ms: rows past 10τ (85 % of them) pooled into one weighted mean.
+    double dt = 0.02;
+    double[] y = curve(1000, dt, 0, new double[] {-480}, new double[] {0.3}, -30, 2.5, 13L);
+    int head = (int) Math.ceil(10 * 0.3 / dt);
+    ExponentialLeastSquares all = new ExponentialLeastSquares(y, 5, 1000, 0, dt, 1, 0);
+    ExponentialLeastSquares pooled =
+        new ExponentialLeastSquares(y, 5, 1000, 0, dt, 1, 0, 996 - head);
+    double[] start = {-25, -400, 0.25};
+    assertEquals(ExponentialLeastSquares.Status.CONVERGED, all.solve(start, 100));
+    assertEquals(ExponentialLeastSquares.Status.CONVERGED, pooled.solve(start, 100));
+    double s2 = all.rss / (996 - 3);
+    for (int u = 0; u < 3; u++) {
+      double se = Math.sqrt(all.inverseNormal[u][u] * s2);
+      assertEquals(all.x[u], pooled.x[u], 0.05 * se, "parameter " + u);
+      assertEquals(
+          all.inverseNormal[u][u], pooled.inverseNormal[u][u], 0.02 * all.inverseNormal[u][u]);
+    }
+    assertEquals(all.rss, pooled.rss, 1e-3 * all.rss);
+  }
+
+  @Test
   void gridStartIsThePairWithTheLeastResidualOfAllPairs() {
     // The one-pass grid (sums shared between pairs) against solving every pair on its own.
     double dt = 0.02;
