@@ -37,11 +37,39 @@ final class BiExponentialFit {
 
   static Result fit(
       double[] y, int from, int to, int ref, double dtMs, int maxIterations, double monoTauMs) {
+    double t0 = (from - ref) * dtMs;
+    return fitFrom(
+        y, from, to, ref, dtMs, maxIterations, gridStart(y, from, to, t0, dtMs, monoTauMs));
+  }
+
+  /**
+   * Fits starting from the time constants {@code tau1Ms}, {@code tau2Ms} (the other transient of
+   * the same pulse: the off-transient decays with the on-transient's time constants), their
+   * amplitudes solved in closed form, instead of from the grid.
+   */
+  static Result fit(
+      double[] y,
+      int from,
+      int to,
+      int ref,
+      double dtMs,
+      int maxIterations,
+      double tau1Ms,
+      double tau2Ms) {
+    double t0 = (from - ref) * dtMs;
+    double[] lin = new double[3];
+    double[] start = null;
+    if (linear(y, from, to, t0, dtMs, tau1Ms, tau2Ms, lin) < Double.POSITIVE_INFINITY) {
+      start = new double[] {lin[0], lin[1], tau1Ms, lin[2], tau2Ms};
+    }
+    return fitFrom(y, from, to, ref, dtMs, maxIterations, start);
+  }
+
+  private static Result fitFrom(
+      double[] y, int from, int to, int ref, double dtMs, int maxIterations, double[] best) {
     Result r = new Result();
     int n = to - from + 1;
     r.samples = n;
-    double t0 = (from - ref) * dtMs;
-    double[] best = gridStart(y, from, to, t0, dtMs, monoTauMs);
     if (best == null) {
       r.failure = "two-exponential start not found";
       return r;

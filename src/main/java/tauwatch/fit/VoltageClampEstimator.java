@@ -341,9 +341,17 @@ public final class VoltageClampEstimator implements PulseEstimator {
     if (model == null && monoShowsStructure(w, start, last, edge, dtMs, r, noise, window)) {
       bi = chooseTwoExponentials(w.response, start, last, edge, dtMs, r, inflation);
     } else if (model != null && model.bi) {
+      // The off-transient decays with the on-transient's time constants: start from them.
       bi =
           BiExponentialFit.fit(
-              w.response, start, last, edge, dtMs, options.maxIterations(), r.tauMs);
+              w.response,
+              start,
+              last,
+              edge,
+              dtMs,
+              options.maxIterations(),
+              model.fitTaus[0],
+              model.fitTaus[1]);
       if (bi.failure != null) {
         return bi.failure;
       }
