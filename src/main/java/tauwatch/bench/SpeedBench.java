@@ -379,7 +379,7 @@ public final class SpeedBench {
       runs.add(r);
       productS[i] = r.seconds();
     }
-    int naiveRounds = Math.max(1, rounds / 2);
+    int naiveRounds = rounds; // as many as the product: its figure moves as much
     double[] naiveS = new double[naiveRounds];
     // An untimed round for the naive pipeline too, so that both columns are measured warm.
     NaivePipeline.Result naive = NaivePipeline.run(capture, workDir.resolve("naive-warm-up.csv"));
