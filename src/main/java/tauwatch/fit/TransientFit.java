@@ -103,11 +103,11 @@ final class TransientFit {
       double[] y, int from, int to, double t0, double dtMs, double[] p, double tau0) {
     int n = to - from + 1;
     int head = (int) Math.min(n, Math.max(2 * P, Math.ceil(TRANSIENT_TAUS * tau0 / dtMs)));
-    double q = Math.exp(-dtMs / p[2]);
-    double e = Math.exp(-t0 / p[2]);
+    ExponentialCurve model =
+        new ExponentialCurve(p[0], new double[] {p[1]}, new double[] {p[2]}, t0, dtMs);
     double sum = 0;
-    for (int k = 0; k < head; k++, e *= q) {
-      double d = y[from + k] - (p[0] + p[1] * e);
+    for (int k = 0; k < head; k++, model.advance()) {
+      double d = y[from + k] - model.value();
       sum += d * d;
     }
     return Math.sqrt(sum / head);

@@ -84,7 +84,7 @@ public final class SampleFeed implements FrameSink {
 
   @Override
   public void onFrame(DecodedFrame f) {
-    if (contradictsProfile(f)) {
+    if (!scaledToProfile(f)) {
       mismatchFrames++;
       return;
     }
@@ -134,16 +134,19 @@ public final class SampleFeed implements FrameSink {
     lastFrameNanos = now;
   }
 
-  /** Checks the frame against the profile and, when it fits, scales it into the scratch. */
-  private boolean contradictsProfile(DecodedFrame f) {
+  /**
+   * Checks the frame against the profile and, when it fits, scales its command and response into
+   * the scratch arrays; false (the mismatch recorded) when it contradicts the profile.
+   */
+  private boolean scaledToProfile(DecodedFrame f) {
     if (f.channels != profile.channels()) {
-      return mismatch(Mismatch.CHANNELS, f.channels);
+      return rejected(Mismatch.CHANNELS, f.channels);
     }
     if (f.sampleFormat != profile.sampleFormat()) {
-      return mismatch(Mismatch.SAMPLE_FORMAT, f.sampleFormat);
+      return rejected(Mismatch.SAMPLE_FORMAT, f.sampleFormat);
     }
     if (f.sampleRateHz > 0 && Math.abs(f.sampleRateHz - rateHz) > 1e-4 * rateHz) {
-      return mismatch(Mismatch.SAMPLE_RATE, f.sampleRateHz);
+      return rejected(Mismatch.SAMPLE_RATE, f.sampleRateHz);
     }
     // Scaled into the frame's scratch on the way, so the samples are read once.
     final double[] v = f.values;
@@ -155,7 +158,7 @@ public final class SampleFeed implements FrameSink {
         double c = v[s * ch + cmdCh];
         double r = v[s * ch + respCh];
         if (!(Math.abs(c) <= rawLimit) || !(Math.abs(r) <= rawLimit)) {
-          return mismatch(Mismatch.RANGE, Math.abs(c) > Math.abs(r) ? c : r);
+          return rejected(Mismatch.RANGE, Math.abs(c) > Math.abs(r) ? c : r);
         }
         cmd[s] = c * cmdScale + cmdOffset;
         resp[s] = r * respScale + respOffset;
@@ -166,13 +169,14 @@ public final class SampleFeed implements FrameSink {
         resp[s] = v[s * ch + respCh] * respScale + respOffset;
       }
     }
-    return false;
+    return true;
   }
 
-  private boolean mismatch(Mismatch m, double value) {
+  /** Records why the frame does not fit the profile; false, for {@link #scaledToProfile}. */
+  private boolean rejected(Mismatch m, double value) {
     lastMismatch = m;
     lastMismatchValue = value;
-    return true;
+    return false;
   }
 
   /** The link went quiet or closed: tells the ring once per loss. */
