@@ -21,6 +21,12 @@ final class BiExponentialFit {
   static final double[] FAST_GRID = {0.1, 0.2, 0.35, 0.55, 0.8};
   static final double[] SLOW_GRID = {1.3, 2, 3, 4.5, 7, 11, 17, 26};
 
+  /**
+   * Rows later than this many slow time constants of the start after the fit's first row are pooled
+   * into one observation (see {@link ExponentialLeastSquares}); e^(−10) ≈ 5·10⁻⁵.
+   */
+  static final double POOL_AFTER_SLOW_TAUS = 10;
+
   private BiExponentialFit() {}
 
   /** The outcome of one fit; {@code failure} is null when it converged. */
@@ -75,8 +81,7 @@ final class BiExponentialFit {
       return r;
     }
     double floorMs = 1e-3 * dtMs;
-    // Pooled past 10 slow time constants of the start, as in the one-exponential fit.
-    int head = (int) Math.min(n, Math.ceil(TransientFit.POOL_AFTER_TAUS * best[T2] / dtMs));
+    int head = (int) Math.min(n, Math.ceil(POOL_AFTER_SLOW_TAUS * best[T2] / dtMs));
     ExponentialLeastSquares lsq =
         new ExponentialLeastSquares(y, from, to, ref, dtMs, 2, floorMs, n - head);
     ExponentialLeastSquares.Status status = lsq.solve(best, maxIterations);

@@ -43,12 +43,6 @@ final class TransientFit {
   static final double TRANSIENT_TAUS = 10;
 
   /**
-   * Rows later than this many closed-form time constants after the fit's start are pooled into one
-   * observation (see {@link ExponentialLeastSquares}); e^(−10) ≈ 5·10⁻⁵.
-   */
-  static final double POOL_AFTER_TAUS = 10;
-
-  /**
    * Fits rows {@code from..to} (inclusive) of {@code y}; row {@code ref} is time 0 and rows are
    * {@code dtMs} apart.
    */
