@@ -79,11 +79,7 @@ final class Baseline {
         scratch[n++] = v;
       }
     }
-    if (n == 0) {
-      return Double.NaN;
-    }
-    Arrays.sort(scratch, 0, n);
-    return n % 2 == 1 ? scratch[n / 2] : 0.5 * (scratch[n / 2 - 1] + scratch[n / 2]);
+    return Medians.inPlace(scratch, n);
   }
 
   boolean isSet() {

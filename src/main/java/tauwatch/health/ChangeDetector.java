@@ -1,14 +1,12 @@
 package tauwatch.health;
 
-import java.util.Arrays;
-
 /**
  * Detects a sustained shift of one parameter away from its baseline — a step or a trend — with a
  * two-sided CUSUM (E. S. Page, "Continuous inspection schemes", Biometrika 41:100–115, 1954, from
  * memory) and names the pulse where the change began.
  *
  * <p>Single-threaded (the analysis thread). All buffers are allocated at construction; {@link
- * #update} allocates nothing (per pulse it sorts two small preallocated arrays).
+ * #update} allocates nothing (per pulse it may take medians of small preallocated arrays).
  *
  * <p>The reference level is the median of the first {@code noiseMinPulses} accepted values (of the
  * session, or after the user sets a new baseline): longer than the baseline's few pulses, so that
@@ -201,8 +199,7 @@ public final class ChangeDetector {
       return 0;
     }
     System.arraycopy(ring, 0, scratch, 0, n);
-    Arrays.sort(scratch, 0, n);
-    return n % 2 == 1 ? scratch[n / 2] : 0.5 * (scratch[n / 2 - 1] + scratch[n / 2]);
+    return Medians.inPlace(scratch, n);
   }
 
   private double mad(double[] ring, int n) {
@@ -210,8 +207,7 @@ public final class ChangeDetector {
     for (int i = 0; i < n; i++) {
       scratch[i] = Math.abs(ring[i] - m);
     }
-    Arrays.sort(scratch, 0, n);
-    return n % 2 == 1 ? scratch[n / 2] : 0.5 * (scratch[n / 2 - 1] + scratch[n / 2]);
+    return Medians.inPlace(scratch, n);
   }
 
   /** {@link #UP}, {@link #DOWN} or {@link #NONE}. */

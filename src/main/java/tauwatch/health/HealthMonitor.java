@@ -195,7 +195,7 @@ public final class HealthMonitor {
   private void onStateChange(
       Parameter p, HealthState from, HealthState to, double v, double b, double t) {
     ParameterJudge judge = judges.get(p);
-    String rule = judge.ruleText(v, b);
+    String rule = judge.reading(v, b).text();
     ChangeDetector d = judge.detector();
     if (to == HealthState.DRIFTING && d.flagged() != ChangeDetector.NONE) {
       // Name when the change began, not only when it was noticed.
@@ -267,7 +267,7 @@ public final class HealthMonitor {
               v,
               b,
               change,
-              Double.isNaN(v) ? "" : j.ruleText(v, b),
+              j.reading(v, b),
               pending,
               pending ? raised.get(p.ordinal()) : null));
       overall = HealthState.worse(overall, j.state());

@@ -1,11 +1,13 @@
 package tauwatch.health;
 
+import tauwatch.health.RuleReading.Rule;
+
 /**
  * Judges one parameter's accepted values against its limits and baseline, with debounce and
  * hysteresis.
  *
- * <p>Single-threaded (the analysis thread). Allocation-free per call except for the rule text,
- * which is built only when the state changes.
+ * <p>Single-threaded (the analysis thread). Allocation-free per call; a {@link RuleReading} is made
+ * per pulse for the snapshot and worded only when read.
  *
  * <p>Each rule is turned into a "usage": 0 at the baseline, 1 at the limit. The largest usage
  * decides: at or above 1 a breach, at or above the warning fraction drifting. Without a baseline
@@ -24,13 +26,7 @@ final class ParameterJudge {
   private HealthState candidate = HealthState.STEADY;
   private int candidateRun;
   private double usage;
-  private int usageRule;
-
-  private static final int RULE_NONE = 0;
-  private static final int RULE_MAX = 1;
-  private static final int RULE_MIN = 2;
-  private static final int RULE_PERCENT = 3;
-  private static final int RULE_ABS = 4;
+  private Rule usageRule = Rule.NONE;
 
   ParameterJudge(ParameterLimits limits, HealthCriteria criteria) {
     this.limits = limits;
@@ -147,7 +143,7 @@ final class ParameterJudge {
 
   private void computeUsage(double v, double b, boolean changeSignificant) {
     usage = 0;
-    usageRule = RULE_NONE;
+    usageRule = Rule.NONE;
     boolean hasBaseline = !Double.isNaN(b);
     if (!Double.isNaN(limits.max())) {
       double u;
@@ -156,7 +152,7 @@ final class ParameterJudge {
       } else {
         u = v > limits.max() ? 1 + (v - limits.max()) / Math.abs(limits.max()) : 0;
       }
-      take(u, RULE_MAX);
+      take(u, Rule.MAX);
     }
     if (!Double.isNaN(limits.min())) {
       double u;
@@ -165,41 +161,26 @@ final class ParameterJudge {
       } else {
         u = v < limits.min() ? 1 + (limits.min() - v) / Math.max(1e-12, Math.abs(limits.min())) : 0;
       }
-      take(u, RULE_MIN);
+      take(u, Rule.MIN);
     }
     if (changeSignificant && hasBaseline && !Double.isNaN(limits.maxChangePercent()) && b != 0) {
-      take(Math.abs(v - b) / (limits.maxChangePercent() / 100.0 * Math.abs(b)), RULE_PERCENT);
+      take(
+          Math.abs(v - b) / (limits.maxChangePercent() / 100.0 * Math.abs(b)), Rule.CHANGE_PERCENT);
     }
     if (changeSignificant && hasBaseline && !Double.isNaN(limits.maxChangeAbs())) {
-      take(Math.abs(v - b) / limits.maxChangeAbs(), RULE_ABS);
+      take(Math.abs(v - b) / limits.maxChangeAbs(), Rule.CHANGE_ABS);
     }
   }
 
-  private void take(double u, int rule) {
+  private void take(double u, Rule rule) {
     if (u > usage) {
       usage = u;
       usageRule = rule;
     }
   }
 
-  /** The rule nearest to (or past) its limit, for events and the view. */
-  String ruleText(double v, double b) {
-    String unit = limits.parameter().unit();
-    switch (usageRule) {
-      case RULE_MAX:
-        return String.format("max %.4g %s", limits.max(), unit);
-      case RULE_MIN:
-        return String.format("min %.4g %s", limits.min(), unit);
-      case RULE_PERCENT:
-        return String.format(
-            "change %+.1f %% from baseline %.4g %s (allowed ±%.4g %%)",
-            100 * (v - b) / Math.abs(b), b, unit, limits.maxChangePercent());
-      case RULE_ABS:
-        return String.format(
-            "change %+.4g %s from baseline %.4g %s (allowed ±%.4g %s)",
-            v - b, unit, b, unit, limits.maxChangeAbs(), unit);
-      default:
-        return "";
-    }
+  /** The rule nearest to (or past) its limit at value v and baseline b, for events and the view. */
+  RuleReading reading(double v, double b) {
+    return new RuleReading(usageRule, limits, v, b);
   }
 }

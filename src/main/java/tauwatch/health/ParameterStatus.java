@@ -12,7 +12,7 @@ import tauwatch.fit.Parameter;
  * @param value latest accepted value, NaN if none
  * @param baseline baseline value, NaN while the baseline is being learnt
  * @param changePercent change from baseline in percent, NaN without baseline
- * @param rule the rule closest to being crossed (or crossed), human-readable, empty if none
+ * @param reading the rule closest to being crossed (or crossed) at the latest value
  * @param alarmPending a breach alarm raised and not yet acknowledged
  * @param alarm the pending alarm as raised, or null when none is pending
  */
@@ -22,7 +22,7 @@ public record ParameterStatus(
     double value,
     double baseline,
     double changePercent,
-    String rule,
+    RuleReading reading,
     boolean alarmPending,
     AlarmRecord alarm) {
 
@@ -33,8 +33,13 @@ public record ParameterStatus(
       double value,
       double baseline,
       double changePercent,
-      String rule,
+      RuleReading reading,
       boolean alarmPending) {
-    this(parameter, state, value, baseline, changePercent, rule, alarmPending, null);
+    this(parameter, state, value, baseline, changePercent, reading, alarmPending, null);
+  }
+
+  /** The rule closest to being crossed (or crossed), human-readable; empty if none. */
+  public String rule() {
+    return reading.text();
   }
 }

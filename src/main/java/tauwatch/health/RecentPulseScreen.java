@@ -1,6 +1,5 @@
 package tauwatch.health;
 
-import java.util.Arrays;
 import java.util.Locale;
 import tauwatch.fit.Parameter;
 import tauwatch.fit.PulseEstimate;
@@ -56,7 +55,7 @@ public final class RecentPulseScreen {
   /** history[k][i]: parameter SCREENED[k] of the i-th ring slot. */
   private final double[][] history;
 
-  private final double[] sorted;
+  private final double[] scratch;
   private int next;
   private int count;
 
@@ -93,7 +92,7 @@ public final class RecentPulseScreen {
     this.relativeFloor = relativeFloor;
     this.confirmPulses = confirmPulses;
     history = new double[SCREENED.length][historyPulses];
-    sorted = new double[historyPulses];
+    scratch = new double[historyPulses];
     suspectValue = new double[confirmPulses - 1][SCREENED.length];
     suspectSe = new double[confirmPulses - 1][SCREENED.length];
   }
@@ -198,7 +197,7 @@ public final class RecentPulseScreen {
       for (int i = 0; i < count; i++) {
         double v = history[k][i];
         if (Double.isFinite(v)) {
-          sorted[n++] = v;
+          scratch[n++] = v;
         }
       }
       if (n < minHistoryPulses) {
@@ -208,7 +207,7 @@ public final class RecentPulseScreen {
       }
       double m = medianOf(n);
       for (int i = 0; i < n; i++) {
-        sorted[i] = Math.abs(sorted[i] - m);
+        scratch[i] = Math.abs(scratch[i] - m);
       }
       median[k] = m;
       spreadMad[k] = medianOf(n);
@@ -216,8 +215,7 @@ public final class RecentPulseScreen {
   }
 
   private double medianOf(int n) {
-    Arrays.sort(sorted, 0, n);
-    return (n & 1) == 1 ? sorted[n / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
+    return Medians.inPlace(scratch, n);
   }
 
   private void add(PulseEstimate e) {

@@ -29,6 +29,12 @@ public final class PulseSegmenter implements SampleBlockHandler {
   /** The holding level follows slow command changes over about this many baseline lengths. */
   private static final int HOLDING_TRACKING_BASELINES = 4;
 
+  /**
+   * Fraction of the edge threshold a command may stray from the run's starting level and still be
+   * certain not to be an edge (one half, with room for rounding).
+   */
+  private static final double SAFE_FRACTION = 0.45;
+
   private final PulseListener listener;
   private final EventSink events;
   private final StreamFormat format;
@@ -37,6 +43,10 @@ public final class PulseSegmenter implements SampleBlockHandler {
   private final int maxStepSamples;
   private final int offSamples;
   private final double holdingAlpha;
+  private final double alphaBeta1;
+  private final double alphaBeta2;
+  private final double alphaBeta3;
+  private final double beta4;
 
   private final long scheduleFirstOnset;
   private final long schedulePeriod;
@@ -69,6 +79,11 @@ public final class PulseSegmenter implements SampleBlockHandler {
     this.maxStepSamples = Math.max(4, (int) Math.round(options.maxStepMs() * 1e-3 * rate));
     this.offSamples = Math.max(4, (int) Math.round(options.offWindowMs() * 1e-3 * rate));
     this.holdingAlpha = 1.0 / (HOLDING_TRACKING_BASELINES * baselineSamples);
+    double beta = 1 - holdingAlpha;
+    this.alphaBeta1 = holdingAlpha * beta;
+    this.alphaBeta2 = alphaBeta1 * beta;
+    this.alphaBeta3 = alphaBeta2 * beta;
+    this.beta4 = beta * beta * beta * beta;
     PulseSchedule s = options.schedule();
     if (s != null) {
       scheduleFirstOnset = Math.round(s.firstOnsetMs() * 1e-3 * rate);
@@ -135,35 +150,96 @@ public final class PulseSegmenter implements SampleBlockHandler {
   /**
    * The common case, between pulses with a full baseline history: samples at the holding level,
    * with a recorded command and no sweep start. Does for each exactly what {@link #onSample} does
-   * in the idle phase (follow the holding level, remember the sample), with the state in locals so
-   * the loop carries no field stores; stops at the first sample that needs the general path.
+   * in the idle phase (follow the holding level, remember the sample), a run at a time; stops at
+   * the first sample that needs the general path.
+   *
+   * <p>A run is found without following the level sample by sample: the level is a weighted mean of
+   * where it started and of the commands since, so while every command stays within {@link
+   * #SAFE_FRACTION} of the threshold of the starting level, no sample can be an edge. Such a run is
+   * then folded into the level four samples per dependent step and copied into the history in bulk;
+   * a sample beyond the safe band is checked exactly, one at a time. The level so followed differs
+   * from the sample-by-sample one only by rounding (it decides edges, which lie a threshold away;
+   * window levels are measured from the window itself).
    *
    * @return the index of the first sample not handled
    */
   private int quietRun(double[] cmd, double[] resp, byte[] sweep, int from, int to) {
-    double level = holdingLevel;
-    final double alpha = holdingAlpha;
-    final double thr = threshold;
-    final double[] hc = historyCommand;
-    final double[] hr = historyResponse;
-    final int size = baselineSamples;
-    int next = historyNext;
     int i = from;
-    for (; i < to; i++) {
+    while (i < to) {
+      int end = safeRunEnd(cmd, sweep, i, to);
+      if (end > i) {
+        followHolding(cmd, i, end);
+        rememberRun(cmd, resp, i, end);
+        i = end;
+        if (i == to) {
+          break;
+        }
+      }
       double c = cmd[i];
-      if (sweep[i] != 0 || c != c || Math.abs(c - level) > thr) {
+      if (sweep[i] != 0 || c != c || Math.abs(c - holdingLevel) > threshold) {
         break;
       }
-      level += (c - level) * alpha;
-      hc[next] = c;
-      hr[next] = resp[i];
-      if (++next == size) {
-        next = 0;
-      }
+      holdingLevel += (c - holdingLevel) * holdingAlpha;
+      remember(c, resp[i]);
+      i++;
+    }
+    return i;
+  }
+
+  /** The end of the run from {@code from} with no sweep start and every command near the level. */
+  private int safeRunEnd(double[] cmd, byte[] sweep, int from, int to) {
+    final double level = holdingLevel;
+    final double band = SAFE_FRACTION * threshold;
+    int i = from;
+    while (i < to && sweep[i] == 0 && Math.abs(cmd[i] - level) <= band) { // NaN ends the run
+      i++;
+    }
+    return i;
+  }
+
+  /**
+   * Folds {@code cmd[from..to)} into the holding level: L ← βL + αc per sample (β = 1 − α), four
+   * samples per step as L ← β⁴L + α(β³c₀ + β²c₁ + βc₂ + c₃), so the loop's dependent chain is a
+   * quarter as long.
+   */
+  private void followHolding(double[] cmd, int from, int to) {
+    double level = holdingLevel;
+    int i = from;
+    for (int end4 = to - 3; i < end4; i += 4) {
+      level =
+          level * beta4
+              + (cmd[i] * alphaBeta3 + cmd[i + 1] * alphaBeta2)
+              + (cmd[i + 2] * alphaBeta1 + cmd[i + 3] * holdingAlpha);
+    }
+    for (; i < to; i++) {
+      level += (cmd[i] - level) * holdingAlpha;
     }
     holdingLevel = level;
+  }
+
+  /** {@link #remember} for a run, when the history is full: only its last samples are kept. */
+  private void rememberRun(double[] cmd, double[] resp, int from, int to) {
+    final int size = baselineSamples;
+    int n = to - from;
+    int next = historyNext;
+    if (n > size) {
+      next = (int) ((next + (long) (n - size)) % size);
+      from = to - size;
+      n = size;
+    }
+    int first = Math.min(n, size - next);
+    System.arraycopy(cmd, from, historyCommand, next, first);
+    System.arraycopy(resp, from, historyResponse, next, first);
+    int rest = n - first;
+    if (rest > 0) {
+      System.arraycopy(cmd, from + first, historyCommand, 0, rest);
+      System.arraycopy(resp, from + first, historyResponse, 0, rest);
+    }
+    next += n;
+    if (next >= size) {
+      next -= size;
+    }
     historyNext = next;
-    return i;
   }
 
   /** The rest of a window cut by a gap or signal loss cannot be trusted; so is the baseline. */

@@ -122,6 +122,29 @@ class PulseSegmenterTest {
   }
 
   @Test
+  void followsADriftingHoldingLevelThroughCommandNoiseNearTheEdgeThreshold() {
+    // Holding creeps by 3 mV over the second (six edge thresholds), and the command carries
+    // uniform noise up to 0.35 mV: past the band where quiet runs are taken whole, short of the
+    // 0.5 mV threshold, so both the bulk and the sample-by-sample ways of following it are used.
+    PulseSegmenter s = segmenter(SegmenterOptions.defaults());
+    java.util.Random rnd = new java.util.Random(11);
+    double[] noise = new double[50_000];
+    for (int i = 0; i < noise.length; i++) {
+      noise[i] = 0.35 * (2 * rnd.nextDouble() - 1);
+    }
+    feed(s, 0, 50_000, i -> command(i, 2500, 5000, 500) + 3.0 * i / 50_000 + noise[(int) i]);
+    assertEquals(10, cuts.size(), "one window per step, no edge from noise or drift");
+    for (int k = 0; k < cuts.size(); k++) {
+      Cut c = cuts.get(k);
+      long onsetIndex = 2500 + 5000L * k;
+      assertEquals(onsetIndex, c.first() + c.onset(), "onset of pulse " + (k + 1));
+      double drift = 3.0 * onsetIndex / 50_000;
+      assertEquals(-70.0 + drift, c.holding(), 0.05, "holding measured under pulse " + (k + 1));
+      assertEquals(500, c.offset() - c.onset());
+    }
+  }
+
+  @Test
   void ignoresStepsLongerThanATestPulseAndFollowsANewHoldingLevel() {
     PulseSegmenter s = segmenter(SegmenterOptions.defaults());
     // Holding changes from −70 to −60 mV at 0.2 s; test pulses of −5 mV continue around it.

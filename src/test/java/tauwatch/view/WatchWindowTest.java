@@ -217,7 +217,12 @@ class WatchWindowTest {
             138.0,
             300.0,
             -54.0,
-            "min 150 MΩ",
+            new tauwatch.health.RuleReading(
+                tauwatch.health.RuleReading.Rule.MIN,
+                new tauwatch.health.ParameterLimits(
+                    Parameter.INPUT_RESISTANCE, 150, Double.NaN, Double.NaN, Double.NaN),
+                138.0,
+                300.0),
             true,
             alarm);
     var h =

@@ -12,7 +12,9 @@ import tauwatch.fit.Parameter;
 import tauwatch.fit.PulseEstimate;
 import tauwatch.health.HealthSnapshot;
 import tauwatch.health.HealthState;
+import tauwatch.health.ParameterLimits;
 import tauwatch.health.ParameterStatus;
+import tauwatch.health.RuleReading;
 
 /** The trend store and its per-pixel reduction, checked against a brute-force scan of the rows. */
 class TrendHistoryTest {
@@ -36,7 +38,17 @@ class TrendHistoryTest {
 
   static HealthSnapshot health(long n, double tS, HealthState raState, double raBaseline) {
     Map<Parameter, ParameterStatus> m = new EnumMap<>(Parameter.class);
-    m.put(RA, new ParameterStatus(RA, raState, 10, raBaseline, 0, "", false));
+    m.put(
+        RA,
+        new ParameterStatus(
+            RA,
+            raState,
+            10,
+            raBaseline,
+            0,
+            RuleReading.none(
+                new ParameterLimits(RA, Double.NaN, Double.NaN, Double.NaN, Double.NaN)),
+            false));
     return new HealthSnapshot(n, tS, raState, m, !Double.isNaN(raBaseline), 20);
   }
 
