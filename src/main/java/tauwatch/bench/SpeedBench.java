@@ -373,7 +373,11 @@ public final class SpeedBench {
 
     List<ChainReplay.Result> runs = new ArrayList<>();
     double[] productS = new double[rounds];
-    ChainReplay.run(capture, workDir.resolve("warm-up"));
+    int[] warmRound = {0};
+    Repeats.WarmUp productWarm =
+        Repeats.untilCompiled(
+            CHAIN_MAX_WARM_UPS,
+            () -> ChainReplay.run(capture, workDir.resolve("warm-up-" + warmRound[0]++)).seconds());
     for (int i = 0; i < rounds; i++) {
       ChainReplay.Result r = ChainReplay.run(capture, workDir.resolve("product-" + i));
       runs.add(r);
@@ -381,8 +385,16 @@ public final class SpeedBench {
     }
     int naiveRounds = rounds; // as many as the product: its figure moves as much
     double[] naiveS = new double[naiveRounds];
-    // An untimed round for the naive pipeline too, so that both columns are measured warm.
-    NaivePipeline.Result naive = NaivePipeline.run(capture, workDir.resolve("naive-warm-up.csv"));
+    // Warm-up rounds for the naive pipeline too, by the same rule, so both columns are measured
+    // warm (its rounds are ten times longer, so its compiler settles sooner).
+    Repeats.WarmUp naiveWarm =
+        Repeats.untilCompiled(
+            CHAIN_MAX_WARM_UPS,
+            () ->
+                NaivePipeline.run(
+                        capture, workDir.resolve("naive-warm-up-" + warmRound[0]++ + ".csv"))
+                    .seconds());
+    NaivePipeline.Result naive = null;
     for (int i = 0; i < naiveRounds; i++) {
       naive = NaivePipeline.run(capture, workDir.resolve("naive-params-" + i + ".csv"));
       naiveS[i] = naive.seconds();
@@ -398,12 +410,14 @@ public final class SpeedBench {
             String.format(
                 Locale.ROOT,
                 "Whole chain in replay: raw capture (%.0f s of 2 ch at %.0f kHz, %.1f MB) →"
-                    + " params.csv; median of %d runs (naive: %d)",
+                    + " params.csv; median of %d runs after %s (naive: %d after %s)",
                 chainSeconds,
                 profile.sampleRateHz() / 1e3,
                 captureBytes / 1e6,
                 rounds,
-                naiveRounds),
+                productWarm.describe(),
+                naiveRounds,
+                naiveWarm.describe()),
             "pipeline",
             "M samples/s (2 ch)",
             "× real time (2 ch, 50 kHz)",
@@ -441,6 +455,9 @@ public final class SpeedBench {
   static final double CHAIN_TARGET_SAMPLES_PER_S = 50e6;
 
   static final double CHAIN_TARGET_TIMES_NAIVE = 10;
+
+  /** At most this many untimed rounds before the timed ones (see {@link Repeats#untilCompiled}). */
+  static final int CHAIN_MAX_WARM_UPS = 25;
 
   /** The naive estimates agree with the product's pulse by pulse, within the stated tolerances. */
   private boolean agreement(List<PulseEstimate> product, List<NaiveEstimate> naive) {

@@ -11,9 +11,10 @@ import java.nio.file.Path;
 /**
  * Reads a Tauwatch raw capture (see {@link RawCaptureWriter}): its header, then record by record.
  *
- * <p>Single-threaded. The payload array is reused (grown when a record is larger), so reading does
- * not allocate per record. A malformed header or a record cut short is an {@link IOException} with
- * one line naming the file.
+ * <p>Single-threaded. Records are read in large chunks into one reused buffer (grown when a record
+ * is larger) and handed out in place, at {@link #payloadOffset()} in {@link #payload()}, so reading
+ * neither allocates nor copies per record. A malformed header or a record cut short is an {@link
+ * IOException} with one line naming the file.
  */
 public final class RawCaptureReader implements AutoCloseable {
   public static final String MAGIC = "tauwatch-capture 1";
@@ -28,8 +29,13 @@ public final class RawCaptureReader implements AutoCloseable {
   private final InputStream in;
   private final String sourceName;
   private final String profileToml;
-  private final byte[] head = new byte[RawCaptureWriter.RECORD_HEADER_BYTES];
-  private byte[] payload = new byte[1 << 16];
+
+  /** Records as read, {@code [pos, lim)} not yet handed out. */
+  private byte[] buf = new byte[1 << 20];
+
+  private int pos;
+  private int lim;
+  private int payloadOffset;
   private int type;
   private long nanos;
   private int length;
@@ -89,33 +95,63 @@ public final class RawCaptureReader implements AutoCloseable {
    * @return false at the clean end of the file
    */
   public boolean next() throws IOException {
-    int got = in.readNBytes(head, 0, head.length);
-    if (got == 0) {
-      return false;
-    }
-    if (got < head.length) {
+    final int headBytes = RawCaptureWriter.RECORD_HEADER_BYTES;
+    if (!buffered(headBytes)) {
+      if (lim == pos) {
+        return false;
+      }
       throw new EOFException(file + ": last record cut short (a capture that was not closed)");
     }
-    type = head[0];
+    byte[] b = buf;
+    int p = pos;
+    type = b[p];
     long t = 0;
     for (int i = 7; i >= 0; i--) {
-      t = t << 8 | (head[1 + i] & 0xff);
+      t = t << 8 | (b[p + 1 + i] & 0xff);
     }
     nanos = t;
     int len = 0;
     for (int i = 3; i >= 0; i--) {
-      len = len << 8 | (head[9 + i] & 0xff);
+      len = len << 8 | (b[p + 9 + i] & 0xff);
     }
     if (len < 0 || (type != BYTES && type != LINK_LOST)) {
       throw new IOException(file + ": malformed record (type " + type + ", length " + len + ")");
     }
-    if (len > payload.length) {
-      payload = new byte[len];
-    }
-    if (in.readNBytes(payload, 0, len) != len) {
+    pos = p + headBytes;
+    if (!buffered(len)) {
       throw new EOFException(file + ": last record cut short (a capture that was not closed)");
     }
+    payloadOffset = pos;
+    pos += len;
     length = len;
+    return true;
+  }
+
+  /**
+   * Makes at least {@code n} unread bytes available from {@link #pos}, reading (and moving the
+   * unread rest to the front, or growing the buffer) as needed; false at the end of the file.
+   */
+  private boolean buffered(int n) throws IOException {
+    if (lim - pos >= n) {
+      return true;
+    }
+    int rest = lim - pos;
+    if (n > buf.length) {
+      byte[] bigger = new byte[Math.max(n, 2 * buf.length)];
+      System.arraycopy(buf, pos, bigger, 0, rest);
+      buf = bigger;
+    } else {
+      System.arraycopy(buf, pos, buf, 0, rest);
+    }
+    pos = 0;
+    lim = rest;
+    while (lim < n) {
+      int got = in.read(buf, lim, buf.length - lim);
+      if (got < 0) {
+        return false;
+      }
+      lim += got;
+    }
     return true;
   }
 
@@ -128,8 +164,14 @@ public final class RawCaptureReader implements AutoCloseable {
     return nanos;
   }
 
+  /** The array holding the current record's payload, from {@link #payloadOffset()}. */
   public byte[] payload() {
-    return payload;
+    return buf;
+  }
+
+  /** Where the current record's payload starts in {@link #payload()}. */
+  public int payloadOffset() {
+    return payloadOffset;
   }
 
   public int length() {

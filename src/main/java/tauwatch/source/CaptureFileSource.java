@@ -83,7 +83,7 @@ public final class CaptureFileSource implements SampleSource {
       while (!stopped && writer.nextSampleIndex() < maxSamples && r.next()) {
         if (r.type() == RawCaptureReader.BYTES) {
           feed.at(r.nanos());
-          decoder.accept(r.payload(), 0, r.length());
+          decoder.accept(r.payload(), r.payloadOffset(), r.length());
         } else {
           decoder.reset();
           feed.signalLost();

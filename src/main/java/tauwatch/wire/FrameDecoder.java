@@ -7,9 +7,10 @@ import tauwatch.stream.StreamCounters;
  * The streaming decoder of binary sample frames ({@link WireFormat}): finds the sync word, checks
  * the header and the CRC-32, and hands each good frame to its sink.
  *
- * <p>Single-threaded (the source thread). Allocation-free after construction: bytes are copied into
- * one buffer that holds two largest frames, the CRC object is reused, and frames are decoded into
- * one {@link DecodedFrame}. A header that fails its checks or a frame whose CRC does not match is
+ * <p>Single-threaded (the source thread). Allocation-free after construction: whole frames are
+ * parsed where the caller's bytes lie, and only a frame split between calls is copied into one
+ * buffer that holds two largest frames; the CRC object is reused, and frames are decoded into one
+ * {@link DecodedFrame}. A header that fails its checks or a frame whose CRC does not match is
  * counted corrupt and the search resumes one byte after its sync word, so a truncated frame
  * followed by a good one loses only itself. The first good frame after skipped bytes or a corrupt
  * frame counts as a resynchronisation.
@@ -17,7 +18,11 @@ import tauwatch.stream.StreamCounters;
 public final class FrameDecoder implements StreamDecoder {
   private final FrameSink sink;
   private final StreamCounters counters;
-  private final byte[] buf = new byte[2 * WireFormat.MAX_FRAME_BYTES];
+  private final byte[] own = new byte[2 * WireFormat.MAX_FRAME_BYTES];
+
+  /** The bytes being parsed: {@link #own}, or the caller's while nothing was left buffered. */
+  private byte[] buf = own;
+
   private final CRC32 crc = new CRC32();
   private final DecodedFrame frame =
       new DecodedFrame(WireFormat.MAX_CHANNELS * WireFormat.MAX_SAMPLES_PER_FRAME);
@@ -36,6 +41,18 @@ public final class FrameDecoder implements StreamDecoder {
 
   @Override
   public void accept(byte[] src, int off, int len) {
+    if (start == end && len > 0) {
+      // Nothing buffered: parse the caller's bytes where they lie and keep only an incomplete tail.
+      buf = src;
+      start = off;
+      end = off + len;
+      parse();
+      off = start;
+      len = end - start;
+      buf = own;
+      start = 0;
+      end = 0;
+    }
     while (len > 0) {
       if (end == buf.length) {
         compact();

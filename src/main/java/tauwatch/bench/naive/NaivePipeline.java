@@ -63,7 +63,7 @@ public final class NaivePipeline {
               try (RawCaptureReader r = new RawCaptureReader(capture)) {
                 while (r.next()) {
                   if (r.type() == RawCaptureReader.BYTES) {
-                    frames.accept(r.payload(), 0, r.length(), r.nanos());
+                    frames.accept(r.payload(), r.payloadOffset(), r.length(), r.nanos());
                   }
                 }
                 queue.put(Sample.END);
