@@ -116,6 +116,12 @@ public final class StaminaRun {
       }
     }
     double wall = (System.nanoTime() - t0) * 1e-9;
+    // GC notifications arrive asynchronously: wait (briefly) for the last forced GC's, so that the
+    // count below is of the GCs this run forced, not of those whose news happened to be in.
+    long deadline = System.nanoTime() + 2_000_000_000L;
+    while (forcedPausesSeen(pauses) < used.size() && System.nanoTime() < deadline) {
+      Thread.sleep(10);
+    }
     for (NotificationEmitter e : emitters) {
       e.removeNotificationListener(gcListener);
     }
@@ -243,6 +249,12 @@ public final class StaminaRun {
   }
 
   /** Pulses whose window (step + 20 ms off window) ends within the stream. */
+  private static long forcedPausesSeen(List<Pause> pauses) {
+    synchronized (pauses) {
+      return pauses.stream().filter(p -> p.cause().equals("System.gc()")).count();
+    }
+  }
+
   static long expectedPulses(TestPulseProtocol p, double seconds) {
     double lastStartMs = seconds * 1e3 - p.stepWidthMs() - 20.0;
     return lastStartMs < p.firstOnsetMs()
