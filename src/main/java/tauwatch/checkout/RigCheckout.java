@@ -15,18 +15,15 @@ import tauwatch.stream.StreamCounters;
  * expectation and builds the pass/fail table.
  *
  * <p>As an {@link EstimateListener} it runs on the analysis thread, keeping the noise (fit residual
- * rms) of accepted pulses and the receive times of the first and last pulse, from which the sample
- * rate is measured against the wall clock. {@link #judge} is called once after the session.
+ * rms) of accepted pulses and every pulse's receive time, from which the sample rate is measured
+ * against the wall clock ({@link WallClockRate}). {@link #judge} is called once after the session.
  */
 public final class RigCheckout implements EstimateListener {
   private final CheckoutExpectation expectation;
   private final EstimateSummary summary = new EstimateSummary();
   private double[] noise = new double[64];
   private int noiseCount;
-  private double firstOnsetS = Double.NaN;
-  private long firstNanos;
-  private double lastOnsetS = Double.NaN;
-  private long lastNanos;
+  private final WallClockRate rate = new WallClockRate();
 
   public RigCheckout(CheckoutExpectation expectation) {
     this.expectation = expectation;
@@ -36,12 +33,7 @@ public final class RigCheckout implements EstimateListener {
   public void onEstimate(PulseEstimate e, HealthSnapshot health) {
     summary.onEstimate(e, health);
     if (e.pulseEndReceivedNanos() != 0) {
-      if (Double.isNaN(firstOnsetS)) {
-        firstOnsetS = e.onsetTimeS();
-        firstNanos = e.pulseEndReceivedNanos();
-      }
-      lastOnsetS = e.onsetTimeS();
-      lastNanos = e.pulseEndReceivedNanos();
+      rate.add(e.onsetTimeS(), e.pulseEndReceivedNanos());
     }
     if (e.accepted() && Double.isFinite(e.rmsResidual())) {
       if (noiseCount == noise.length) {
@@ -92,8 +84,8 @@ public final class RigCheckout implements EstimateListener {
             "",
             noiseCount > 0 && noiseMedian <= expectation.maxNoiseRmsPa()));
     double measuredRate = Double.NaN;
-    if (live && lastNanos - firstNanos > 1_000_000_000L) {
-      measuredRate = nominalRateHz * (lastOnsetS - firstOnsetS) / ((lastNanos - firstNanos) * 1e-9);
+    if (live && rate.spanNanos() > 1_000_000_000L) {
+      measuredRate = rate.rateHz(nominalRateHz);
     }
     double tol = expectation.sampleRateTolerancePercent();
     rows.add(
