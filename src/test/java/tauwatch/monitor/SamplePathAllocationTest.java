@@ -84,10 +84,13 @@ class SamplePathAllocationTest {
 
     long consumerBytes = probe.bytesAtEnd - probe.bytesAtMark;
     assertEquals(3000, pulses[0], "every pulse was cut");
-    assertEquals(0, producerBytes, "source-side bytes allocated over " + measured + " samples");
-    // A one-off of a few hundred bytes can come from the JIT (an end-of-stream branch taken for the
-    // first time deoptimises and rematerialises scalar-replaced objects); it cannot scale with the
-    // sample count: one byte per sample would be 10 MB here.
+    // A one-off of a few hundred bytes can come from the JIT (a branch taken for the first time —
+    // the end of the stream, or the producer finding the ring full — deoptimises and
+    // rematerialises scalar-replaced objects; seen once as 72 bytes on the producer under a loaded
+    // machine); it cannot scale with the sample count: one byte per sample would be 10 MB here.
+    assertTrue(
+        producerBytes < 1024,
+        "source-side bytes allocated over " + measured + " samples: " + producerBytes);
     assertTrue(
         consumerBytes < 1024,
         "consumer-side bytes allocated over " + measured + " samples: " + consumerBytes);
