@@ -25,6 +25,12 @@ public final class RawCaptureReader implements AutoCloseable {
   /** Record type: the link closed or fell silent. */
   public static final int LINK_LOST = RawCaptureWriter.TYPE_LINK_LOST;
 
+  /**
+   * Longest payload taken as a record: far beyond any single read a link hands over (kilobytes), so
+   * that a corrupt length field is a clear error rather than an attempt to buffer gigabytes.
+   */
+  static final int MAX_RECORD_BYTES = 64 << 20;
+
   private final Path file;
   private final InputStream in;
   private final String sourceName;
@@ -114,7 +120,7 @@ public final class RawCaptureReader implements AutoCloseable {
     for (int i = 3; i >= 0; i--) {
       len = len << 8 | (b[p + 9 + i] & 0xff);
     }
-    if (len < 0 || (type != BYTES && type != LINK_LOST)) {
+    if (len < 0 || len > MAX_RECORD_BYTES || (type != BYTES && type != LINK_LOST)) {
       throw new IOException(file + ": malformed record (type " + type + ", length " + len + ")");
     }
     pos = p + headBytes;
