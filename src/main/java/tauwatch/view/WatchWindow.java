@@ -14,7 +14,9 @@ import javafx.scene.Parent;
 import javafx.scene.control.Button;
 import javafx.scene.control.CheckBox;
 import javafx.scene.control.ComboBox;
+import javafx.scene.control.Control;
 import javafx.scene.control.Label;
+import javafx.scene.control.ListCell;
 import javafx.scene.control.ListView;
 import javafx.scene.control.Separator;
 import javafx.scene.control.SplitPane;
@@ -464,6 +466,8 @@ public final class WatchWindow {
     overall.setPadding(new Insets(4, 4, 4, 6));
     alarmList.setId("alarm-history");
     eventList.setId("event-list");
+    wrapLines(alarmList);
+    wrapLines(eventList);
     alarmList.setPrefHeight(90);
     alarmList.setMinHeight(70);
     eventList.setPrefHeight(140);
@@ -481,6 +485,29 @@ public final class WatchWindow {
     split.setDividerPositions(0.73);
     SplitPane.setResizableWithParent(right, false);
     return split;
+  }
+
+  /**
+   * Lines wrap at the list's width: an event's text (a baseline's values, an alarm's rule) is
+   * longer than the side panel, and a cut line hides the part that says why.
+   */
+  private static void wrapLines(ListView<String> list) {
+    list.setCellFactory(
+        v ->
+            new ListCell<>() {
+              {
+                setWrapText(true);
+                // Less the scroll bar and the cell's padding, so the text never runs under them.
+                prefWidthProperty().bind(v.widthProperty().subtract(24));
+                setMaxWidth(Control.USE_PREF_SIZE);
+              }
+
+              @Override
+              protected void updateItem(String item, boolean empty) {
+                super.updateItem(item, empty);
+                setText(empty ? null : item);
+              }
+            });
   }
 
   private ToggleButton range(ToggleGroup g, String text, double spanS) {

@@ -137,6 +137,30 @@ class WatchWindowTest {
   }
 
   @Test
+  void aLongEventLineWrapsWithinTheSidePanelInsteadOfBeingCut(FxRobot robot) throws Exception {
+    baseline();
+    frame(robot);
+    String note = "bath exchanged to the second drug at twice the concentration, cell looks fine";
+    robot.clickOn("#mark-note").write(note);
+    robot.clickOn("#add-mark");
+    WaitForAsyncUtils.waitForFxEvents();
+    frame(robot);
+    var list = window.eventList();
+    var cells =
+        robot.lookup("#event-list .list-cell").queryAllAs(javafx.scene.control.ListCell.class);
+    var first =
+        cells.stream()
+            .filter(c -> c.getItem() != null && c.getItem().toString().contains(note))
+            .findFirst()
+            .orElseThrow();
+    assertTrue(first.isWrapText());
+    assertTrue(
+        first.getWidth() <= list.getWidth(),
+        "cell " + first.getWidth() + " px within the list's " + list.getWidth() + " px");
+    assertTrue(first.getHeight() > 1.5 * first.getFont().getSize(), "the line took more rows");
+  }
+
+  @Test
   void whenPulsesStopTheReadoutsSayNoSignalWithoutANewPulse(FxRobot robot) {
     baseline();
     frame(robot);
