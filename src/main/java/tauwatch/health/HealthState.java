@@ -29,7 +29,8 @@ public enum HealthState {
     return a.severity() >= b.severity() ? a : b;
   }
 
-  private int severity() {
+  /** How bad the state is: a higher rank is worse ({@link #worse} keeps the higher). */
+  public int severity() {
     switch (this) {
       case STEADY:
         return 0;

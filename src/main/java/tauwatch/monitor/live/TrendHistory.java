@@ -142,6 +142,34 @@ public final class TrendHistory {
     return STATES[overall[slot / CHUNK_ROWS][slot % CHUNK_ROWS]];
   }
 
+  /** The storage slot (index in the ring) of a row. */
+  int slot(long row) {
+    return (int) (row % capacity);
+  }
+
+  // The chunk columns themselves, for readers in this package that walk a run of rows within one
+  // chunk directly instead of locating every row again (TrendReduction over a day of rows).
+
+  double[] timeChunk(int chunk) {
+    return timeS[chunk];
+  }
+
+  byte[] acceptedChunk(int chunk) {
+    return accepted[chunk];
+  }
+
+  float[] valueChunk(int chunk, Parameter p) {
+    return values[chunk][p.ordinal()];
+  }
+
+  float[] baselineChunk(int chunk, Parameter p) {
+    return baselines[chunk][p.ordinal()];
+  }
+
+  byte[] stateChunk(int chunk, Parameter p) {
+    return states[chunk][p.ordinal()];
+  }
+
   /**
    * The first row in {@code [from, to)} whose time is at least {@code tS} (binary search: onset
    * times only grow), or {@code to} when none.

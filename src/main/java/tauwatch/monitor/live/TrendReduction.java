@@ -15,6 +15,15 @@ import tauwatch.health.HealthState;
 public final class TrendReduction {
   private static final HealthState[] STATES = HealthState.values();
 
+  /** Each state's {@link HealthState#severity()}, by ordinal. */
+  private static final int[] SEVERITY = new int[STATES.length];
+
+  static {
+    for (HealthState s : STATES) {
+      SEVERITY[s.ordinal()] = s.severity();
+    }
+  }
+
   private int columns;
   private float[] min = new float[0];
   private float[] max = new float[0];
@@ -53,40 +62,57 @@ public final class TrendReduction {
     long from = h.firstRowAtOrAfter(t0S, oldest, count);
     long to = h.firstRowAtOrAfter(t1S, from, count);
     double perColumn = columns / (t1S - t0S);
-    double lo = Double.POSITIVE_INFINITY;
-    double hi = Double.NEGATIVE_INFINITY;
-    for (long r = from; r < to; r++) {
-      int c = (int) ((h.timeS(r) - t0S) * perColumn);
-      if (c < 0 || c >= columns) {
-        continue;
+    float lo = Float.POSITIVE_INFINITY;
+    float hi = Float.NEGATIVE_INFINITY;
+    // A run of rows at a time within one storage chunk, on the chunk's arrays: locating each row
+    // anew (a long modulo and three array hops per column read) was most of a day-long redraw.
+    long r = from;
+    while (r < to) {
+      int slot = h.slot(r);
+      int chunk = slot / TrendHistory.CHUNK_ROWS;
+      int start = slot % TrendHistory.CHUNK_ROWS;
+      int end = (int) Math.min(TrendHistory.CHUNK_ROWS, start + (to - r));
+      final double[] ts = h.timeChunk(chunk);
+      final byte[] acc = h.acceptedChunk(chunk);
+      final float[] vs = h.valueChunk(chunk, p);
+      final float[] bs = h.baselineChunk(chunk, p);
+      final byte[] st = h.stateChunk(chunk, p);
+      for (int i = start; i < end; i++) {
+        int c = (int) ((ts[i] - t0S) * perColumn);
+        if (c < 0 || c >= columns) {
+          continue;
+        }
+        any[c] = true;
+        int s = st[i];
+        if (SEVERITY[s] > SEVERITY[worst[c]]) {
+          worst[c] = (byte) s;
+        }
+        float b = bs[i];
+        if (!Float.isNaN(b)) {
+          baseline[c] = b;
+        }
+        if (acc[i] == 0) {
+          rejected[c]++;
+          continue;
+        }
+        float v = vs[i];
+        if (Float.isNaN(v)) {
+          continue;
+        }
+        if (Float.isNaN(min[c]) || v < min[c]) {
+          min[c] = v;
+        }
+        if (Float.isNaN(max[c]) || v > max[c]) {
+          max[c] = v;
+        }
+        if (v < lo) {
+          lo = v;
+        }
+        if (v > hi) {
+          hi = v;
+        }
       }
-      any[c] = true;
-      HealthState s = STATES[h.stateOrdinal(r, p)];
-      worst[c] = (byte) HealthState.worse(STATES[worst[c]], s).ordinal();
-      float b = h.baseline(r, p);
-      if (!Float.isNaN(b)) {
-        baseline[c] = b;
-      }
-      if (!h.accepted(r)) {
-        rejected[c]++;
-        continue;
-      }
-      float v = h.value(r, p);
-      if (Float.isNaN(v)) {
-        continue;
-      }
-      if (Float.isNaN(min[c]) || v < min[c]) {
-        min[c] = v;
-      }
-      if (Float.isNaN(max[c]) || v > max[c]) {
-        max[c] = v;
-      }
-      if (v < lo) {
-        lo = v;
-      }
-      if (v > hi) {
-        hi = v;
-      }
+      r += end - start;
     }
     if (lo <= hi) {
       dataMin = lo;

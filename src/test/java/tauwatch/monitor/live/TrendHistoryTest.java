@@ -132,6 +132,56 @@ class TrendHistoryTest {
   }
 
   @Test
+  void reductionOverAWrappedRingMatchesReadingRowByRow() {
+    // The reduction walks the storage chunk by chunk; the brute force below reads each row through
+    // the public accessors, across chunk ends and the ring's wrap.
+    TrendHistory h = new TrendHistory(2 * TrendHistory.CHUNK_ROWS);
+    Random rng = new Random(11);
+    int n = (int) (3.3 * TrendHistory.CHUNK_ROWS);
+    for (int i = 0; i < n; i++) {
+      HealthState s = HealthState.values()[rng.nextInt(HealthState.values().length)];
+      h.append(
+          estimate(i, 0.5 * i, 10 + rng.nextGaussian(), rng.nextInt(8) != 0),
+          health(i, 0.5 * i, s, 10 + i * 1e-3));
+    }
+    long count = h.rowCount();
+    long oldest = h.oldestReadableRow(count);
+    double t0 = h.timeS(oldest);
+    double t1 = h.timeS(count - 1) + 0.5;
+    int cols = 499;
+    TrendReduction red = new TrendReduction();
+    red.reduce(h, RA, t0, t1, cols);
+    float[] mn = new float[cols];
+    float[] mx = new float[cols];
+    float[] base = new float[cols];
+    int[] rej = new int[cols];
+    HealthState[] worst = new HealthState[cols];
+    java.util.Arrays.fill(mn, Float.NaN);
+    java.util.Arrays.fill(mx, Float.NaN);
+    java.util.Arrays.fill(worst, HealthState.STEADY);
+    for (long r = oldest; r < count; r++) {
+      int c = (int) ((h.timeS(r) - t0) * (cols / (t1 - t0)));
+      worst[c] = HealthState.worse(worst[c], HealthState.values()[h.stateOrdinal(r, RA)]);
+      base[c] = h.baseline(r, RA);
+      if (!h.accepted(r)) {
+        rej[c]++;
+        continue;
+      }
+      float v = h.value(r, RA);
+      mn[c] = Float.isNaN(mn[c]) ? v : Math.min(mn[c], v);
+      mx[c] = Float.isNaN(mx[c]) ? v : Math.max(mx[c], v);
+    }
+    assertEquals(count - oldest, red.rowsRead());
+    for (int c = 0; c < cols; c++) {
+      assertEquals(mn[c], red.min(c), "min, column " + c);
+      assertEquals(mx[c], red.max(c), "max, column " + c);
+      assertEquals(rej[c], red.rejected(c), "rejected, column " + c);
+      assertEquals(worst[c], red.worstState(c), "state, column " + c);
+      assertEquals(base[c], red.baseline(c), "baseline, column " + c);
+    }
+  }
+
+  @Test
   void anEmptyHistoryReducesToEmptyColumns() {
     TrendReduction red = new TrendReduction();
     assertEquals(0, red.reduce(new TrendHistory(), RA, 0, 60, 100));
