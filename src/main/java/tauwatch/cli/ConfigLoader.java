@@ -18,6 +18,7 @@ import tauwatch.fit.FilterCompensation;
 import tauwatch.fit.Parameter;
 import tauwatch.health.DriftDetection;
 import tauwatch.health.HealthCriteria;
+import tauwatch.health.OutlierScreening;
 import tauwatch.health.ParameterLimits;
 import tauwatch.monitor.MonitorConfig;
 import tauwatch.pulse.PulseSchedule;
@@ -232,9 +233,20 @@ public final class ConfigLoader {
                       drift,
                       r.integer("health.average_pulses"),
                       r.number("health.change_sigmas")));
+      OutlierScreening outliers =
+          r.valid(
+              "outliers",
+              () ->
+                  new OutlierScreening(
+                      r.bool("outliers.enabled"),
+                      r.integer("outliers.history_pulses"),
+                      r.integer("outliers.min_history_pulses"),
+                      r.number("outliers.outlier_sigmas"),
+                      r.number("outliers.relative_floor_percent"),
+                      r.integer("outliers.confirm_pulses")));
       @SuppressWarnings("unchecked")
       Map<String, Object> asLoaded = TOML.convertValue(c, Map.class);
-      return new MonitorConfig(seg, edgePa, filterHz, estimator, health, asLoaded);
+      return new MonitorConfig(seg, edgePa, filterHz, estimator, health, outliers, asLoaded);
     } catch (ConfigFailure f) {
       throw f.cause;
     }

@@ -46,6 +46,7 @@ public final class RecentPulseScreen {
     Parameter.ACCESS_RESISTANCE, Parameter.TOTAL_RESISTANCE, Parameter.TIME_CONSTANT
   };
 
+  private final boolean enabled;
   private final int historyPulses;
   private final int minHistoryPulses;
   private final double outlierSigmas;
@@ -74,6 +75,27 @@ public final class RecentPulseScreen {
       double outlierSigmas,
       double relativeFloor,
       int confirmPulses) {
+    this(historyPulses, minHistoryPulses, outlierSigmas, relativeFloor, confirmPulses, true);
+  }
+
+  /** A screen with the lab's settings; one that is not enabled passes every pulse on as it is. */
+  public RecentPulseScreen(OutlierScreening s) {
+    this(
+        s.historyPulses(),
+        s.minHistoryPulses(),
+        s.outlierSigmas(),
+        s.relativeFloorPercent() / 100,
+        s.confirmPulses(),
+        s.enabled());
+  }
+
+  private RecentPulseScreen(
+      int historyPulses,
+      int minHistoryPulses,
+      double outlierSigmas,
+      double relativeFloor,
+      int confirmPulses,
+      boolean enabled) {
     if (minHistoryPulses < 3 || historyPulses < minHistoryPulses) {
       throw new IllegalArgumentException(
           "outlier history must hold at least 3 pulses and no fewer than the minimum, got "
@@ -86,6 +108,7 @@ public final class RecentPulseScreen {
           "outlier sigmas must be positive, the floor non-negative and confirmation at least 2"
               + " pulses");
     }
+    this.enabled = enabled;
     this.historyPulses = historyPulses;
     this.minHistoryPulses = minHistoryPulses;
     this.outlierSigmas = outlierSigmas;
@@ -99,17 +122,12 @@ public final class RecentPulseScreen {
 
   /** The screen with the defaults above. */
   public static RecentPulseScreen defaults() {
-    return new RecentPulseScreen(
-        DEFAULT_HISTORY_PULSES,
-        DEFAULT_MIN_HISTORY_PULSES,
-        DEFAULT_OUTLIER_SIGMAS,
-        DEFAULT_RELATIVE_FLOOR,
-        DEFAULT_CONFIRM_PULSES);
+    return OutlierScreening.defaults().newScreen();
   }
 
   /** The estimate as it goes on: {@code e} itself, or a copy rejected as an isolated outlier. */
   public PulseEstimate screen(PulseEstimate e) {
-    if (!e.accepted()) {
+    if (!enabled || !e.accepted()) {
       return e;
     }
     if (count < minHistoryPulses) {

@@ -12,7 +12,6 @@ import java.util.concurrent.ConcurrentHashMap;
 import tauwatch.event.EventSink;
 import tauwatch.event.StreamClock;
 import tauwatch.health.HealthMonitor;
-import tauwatch.health.RecentPulseScreen;
 import tauwatch.pulse.PulseSegmenter;
 import tauwatch.pulse.SegmenterOptions;
 import tauwatch.record.ParamsLog;
@@ -96,7 +95,7 @@ final class AnalysisWarmUp {
     PulseAnalysis analysis =
         new PulseAnalysis(
             PulseEstimators.forFormat(recording.format(), config),
-            RecentPulseScreen.defaults(),
+            config.outliers().newScreen(),
             new HealthMonitor(config.health(), discard, clock),
             log,
             discard,

@@ -14,7 +14,6 @@ import tauwatch.event.EventSink;
 import tauwatch.event.StreamClock;
 import tauwatch.fit.PulseEstimator;
 import tauwatch.health.HealthMonitor;
-import tauwatch.health.RecentPulseScreen;
 import tauwatch.pulse.PulseSegmenter;
 import tauwatch.record.EventLog;
 import tauwatch.record.ParamsLog;
@@ -139,7 +138,7 @@ public final class Monitor {
       health = h;
       PulseAnalysis analysis =
           new PulseAnalysis(
-              estimator, RecentPulseScreen.defaults(), h, params, events, streamClock, listeners);
+              estimator, config.outliers().newScreen(), h, params, events, streamClock, listeners);
       PulseSegmenter segmenter =
           new PulseSegmenter(format, config.segmenterFor(format.mode()), analysis, events);
       StreamWatch watch = new StreamWatch(format, streamClock, h, events);

@@ -3,6 +3,7 @@ package tauwatch.monitor;
 import java.util.Map;
 import tauwatch.fit.EstimatorOptions;
 import tauwatch.health.HealthCriteria;
+import tauwatch.health.OutlierScreening;
 import tauwatch.pulse.SegmenterOptions;
 import tauwatch.stream.ClampMode;
 
@@ -17,6 +18,7 @@ import tauwatch.stream.ClampMode;
  * @param filterCutoffHz amplifier filter cutoff to assume when the source does not say, 0 = none
  * @param estimator the voltage-clamp estimator's options
  * @param health the acceptance criteria
+ * @param outliers the screen of isolated outlier pulses
  * @param asLoaded the configuration as read, for {@code session.json}
  */
 public record MonitorConfig(
@@ -25,6 +27,7 @@ public record MonitorConfig(
     double filterCutoffHz,
     EstimatorOptions estimator,
     HealthCriteria health,
+    OutlierScreening outliers,
     Map<String, Object> asLoaded) {
 
   /** 5 pA: above a current command's noise, below any test step (common practice). */
@@ -41,6 +44,7 @@ public record MonitorConfig(
         0,
         EstimatorOptions.defaults(),
         HealthCriteria.defaults(),
+        OutlierScreening.defaults(),
         Map.of());
   }
 

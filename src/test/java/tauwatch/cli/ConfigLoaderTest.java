@@ -55,6 +55,20 @@ class ConfigLoaderTest {
   }
 
   @Test
+  void theOutlierScreenIsTheLabsToSetOrSwitchOff() throws Exception {
+    assertEquals(tauwatch.health.OutlierScreening.defaults(), ConfigLoader.defaults().outliers());
+    MonitorConfig c =
+        ConfigLoader.load(write("[outliers]\noutlier_sigmas = 4.5\nhistory_pulses = 30\n"));
+    assertEquals(4.5, c.outliers().outlierSigmas());
+    assertEquals(30, c.outliers().historyPulses());
+    assertEquals(8, c.outliers().minHistoryPulses(), "the rest keeps its default");
+    assertTrue(c.outliers().enabled());
+    assertTrue(!ConfigLoader.load(write("[outliers]\nenabled = false\n")).outliers().enabled());
+    String m = error("[outliers]\nconfirm_pulses = 1\n");
+    assertTrue(m.contains("lab.toml: [outliers] confirm_pulses must be >= 2, got 1"), m);
+  }
+
+  @Test
   void anUnknownKeyIsNamedWithItsFile() throws Exception {
     String m = error("[health]\ndebounce = 5\n");
     assertEquals(dir.resolve("lab.toml") + ": unknown key 'health.debounce'", m);

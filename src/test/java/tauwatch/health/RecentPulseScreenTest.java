@@ -108,4 +108,33 @@ class RecentPulseScreenTest {
         "outlier against the recent pulses (Ra 20.0 vs median 12.0)",
         screen.screen(pulse(++n, 20)).rejectReason());
   }
+
+  @Test
+  void aScreenSwitchedOffPassesEveryPulseAndTighterSettingsCatchSmallerJumps() {
+    OutlierScreening d = OutlierScreening.defaults();
+    RecentPulseScreen off =
+        new OutlierScreening(
+                false,
+                d.historyPulses(),
+                d.minHistoryPulses(),
+                d.outlierSigmas(),
+                d.relativeFloorPercent(),
+                d.confirmPulses())
+            .newScreen();
+    RecentPulseScreen tight = new OutlierScreening(true, 15, 8, 6, 0.1, 3).newScreen();
+    RecentPulseScreen usual = RecentPulseScreen.defaults();
+    long n = 0;
+    for (int i = 0; i < 15; i++) {
+      PulseEstimate e = pulse(++n, 12 + 0.01 * Math.sin(i));
+      off.screen(e);
+      tight.screen(e);
+      usual.screen(e);
+    }
+    PulseEstimate jump = pulse(++n, 12.5); // 4 %: inside 6 × the default 1 % floor, not 0.1 %
+    assertSame(jump, off.screen(jump));
+    assertSame(jump, usual.screen(jump));
+    assertFalse(tight.screen(jump).accepted());
+    PulseEstimate wild = pulse(++n, 90);
+    assertSame(wild, off.screen(wild), "off means off, however far the pulse");
+  }
 }
