@@ -86,9 +86,8 @@ final class ResidualNoise {
   private double lagSum(int k) {
     double sum = 0;
     for (int s = 0; s < segments; s++) {
-      int start = segmentStarts[s];
-      int end = s + 1 < segments ? segmentStarts[s + 1] : length;
-      for (int i = start + k; i < end; i++) {
+      int end = segmentEnd(s);
+      for (int i = segmentStarts[s] + k; i < end; i++) {
         sum += residuals[i] * residuals[i - k];
       }
     }
@@ -99,10 +98,13 @@ final class ResidualNoise {
   private long lagCount(int k) {
     long count = 0;
     for (int s = 0; s < segments; s++) {
-      int start = segmentStarts[s];
-      int end = s + 1 < segments ? segmentStarts[s + 1] : length;
-      count += Math.max(0, end - start - k);
+      count += Math.max(0, segmentEnd(s) - segmentStarts[s] - k);
     }
     return count;
+  }
+
+  /** One past the last residual of segment {@code s}. */
+  private int segmentEnd(int s) {
+    return s + 1 < segments ? segmentStarts[s + 1] : length;
   }
 }
