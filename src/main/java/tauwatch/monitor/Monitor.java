@@ -100,6 +100,17 @@ public final class Monitor {
     }
   }
 
+  /**
+   * Samples in {@code duration} at {@code rateHz}, rounded up, in exact decimal arithmetic: in
+   * doubles 240 s × 1e-9 × 50 kHz comes to 12 000 000.000000002, one sample too many.
+   */
+  static long samplesIn(Duration duration, double rateHz) {
+    return java.math.BigDecimal.valueOf(duration.toNanos())
+        .multiply(java.math.BigDecimal.valueOf(rateHz))
+        .divide(java.math.BigDecimal.valueOf(1_000_000_000L), 0, java.math.RoundingMode.CEILING)
+        .longValueExact();
+  }
+
   private MonitorResult runLogged(Duration duration) throws IOException, InterruptedException {
     StreamFormat format = source.format();
     // Before the source opens and before the session's start time is taken: nothing waits on it.
@@ -160,9 +171,7 @@ public final class Monitor {
       writeEarlyMarks();
 
       long maxSamples =
-          duration == null
-              ? Long.MAX_VALUE
-              : (long) Math.ceil(duration.toNanos() * 1e-9 * format.sampleRateHz());
+          duration == null ? Long.MAX_VALUE : samplesIn(duration, format.sampleRateHz());
       source.attach(events, streamClock);
       SourceRunner runner = new SourceRunner(source, r.writer(), maxSamples, events, streamClock);
       Thread t = new Thread(runner, "tauwatch-source");
