@@ -124,7 +124,10 @@ public final class SimulatedDaq {
     long noiseBurstLeft = 0;
     double noiseChance = noiseBurstsPerS * perFrame / rate;
     long nextDropNs = disconnectEveryS > 0 ? (long) (disconnectEveryS * 1e9) : Long.MAX_VALUE;
-    long maxSamples = Double.isInfinite(durationS) ? Long.MAX_VALUE : (long) (durationS * rate);
+    // A micro-sample of slack: a duration given in ns and turned into seconds can land a hair
+    // below a whole sample count, which truncation would cut by one.
+    long maxSamples =
+        Double.isInfinite(durationS) ? Long.MAX_VALUE : (long) Math.floor(durationS * rate + 1e-6);
     long sample = 0;
     long sequence = 0;
     long startNs = System.nanoTime();
