@@ -1,6 +1,6 @@
 package tauwatch.bench;
 
-import java.util.Arrays;
+import tauwatch.health.Medians;
 
 /**
  * A hand-rolled timing harness: warm-up rounds, then the median of repeated timed rounds.
@@ -83,9 +83,6 @@ final class Repeats {
   }
 
   static double median(double[] v) {
-    double[] s = v.clone();
-    Arrays.sort(s);
-    int n = s.length;
-    return n % 2 == 1 ? s[n / 2] : 0.5 * (s[n / 2 - 1] + s[n / 2]);
+    return Medians.inPlace(v.clone(), v.length);
   }
 }

@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.Locale;
 import tauwatch.fit.PulseEstimate;
 import tauwatch.health.HealthSnapshot;
+import tauwatch.health.Medians;
 import tauwatch.monitor.EstimateListener;
 import tauwatch.monitor.EstimateSummary;
 import tauwatch.stream.StreamCounters;
@@ -111,12 +112,7 @@ public final class RigCheckout implements EstimateListener {
   }
 
   private static double median(double[] v, int n) {
-    if (n == 0) {
-      return Double.NaN;
-    }
-    double[] s = Arrays.copyOf(v, n);
-    Arrays.sort(s);
-    return n % 2 == 1 ? s[n / 2] : 0.5 * (s[n / 2 - 1] + s[n / 2]);
+    return Medians.inPlace(Arrays.copyOf(v, n), n);
   }
 
   static String fmt(double v) {

@@ -46,12 +46,16 @@ public final class FrameDecoder implements StreamDecoder {
       buf = src;
       start = off;
       end = off + len;
-      parse();
-      off = start;
-      len = end - start;
-      buf = own;
-      start = 0;
-      end = 0;
+      try {
+        parse();
+        off = start;
+        len = end - start;
+      } finally {
+        // Never keep the caller's array, even when the sink threw: it is theirs to reuse.
+        buf = own;
+        start = 0;
+        end = 0;
+      }
     }
     while (len > 0) {
       if (end == buf.length) {
