@@ -33,7 +33,7 @@ final class CsvText {
     BigDecimal r = BigDecimal.valueOf(v).round(new MathContext(digits, RoundingMode.HALF_UP));
     int exponent = r.precision() - r.scale() - 1; // of the leading digit
     if (exponent >= -4 && exponent < digits) {
-      return r.signum() == 0 ? "0" : r.stripTrailingZeros().toPlainString();
+      return r.stripTrailingZeros().toPlainString();
     }
     StringBuilder sb = new StringBuilder(digits + 8);
     if (r.signum() < 0) {
