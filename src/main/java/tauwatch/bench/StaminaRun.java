@@ -53,7 +53,12 @@ public final class StaminaRun {
   }
 
   /** One GC as the JVM reported it. */
-  record Pause(String collector, String cause, long durationMs) {}
+  record Pause(String collector, String cause, long durationMs) {
+    /** A collection this run asked for (one per simulated hour). */
+    boolean forced() {
+      return cause.equals("System.gc()");
+    }
+  }
 
   public boolean run() throws Exception {
     Scenario sc = ScenarioLoader.loadBuiltIn("steady-cell");
@@ -149,7 +154,7 @@ public final class StaminaRun {
     long otherCount = 0;
     synchronized (pauses) {
       for (Pause p : pauses) {
-        if (p.cause().equals("System.gc()")) {
+        if (p.forced()) {
           explicit++;
         } else if (p.collector().contains("Young")) {
           youngCount++;
@@ -251,7 +256,7 @@ public final class StaminaRun {
   /** Pulses whose window (step + 20 ms off window) ends within the stream. */
   private static long forcedPausesSeen(List<Pause> pauses) {
     synchronized (pauses) {
-      return pauses.stream().filter(p -> p.cause().equals("System.gc()")).count();
+      return pauses.stream().filter(Pause::forced).count();
     }
   }
 

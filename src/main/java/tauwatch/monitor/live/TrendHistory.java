@@ -81,7 +81,7 @@ public final class TrendHistory {
   /** Appends one estimate with the health it left. Analysis thread only. */
   public void append(PulseEstimate e, HealthSnapshot h) {
     long row = rows.getPlain();
-    int slot = (int) (row % capacity);
+    int slot = slot(row);
     int c = slot / CHUNK_ROWS;
     int i = slot % CHUNK_ROWS;
     timeS[c][i] = e.onsetTimeS();
@@ -110,35 +110,35 @@ public final class TrendHistory {
 
   /** Stream time of a row's pulse onset, in s. */
   public double timeS(long row) {
-    int slot = (int) (row % capacity);
+    int slot = slot(row);
     return timeS[slot / CHUNK_ROWS][slot % CHUNK_ROWS];
   }
 
   public boolean accepted(long row) {
-    int slot = (int) (row % capacity);
+    int slot = slot(row);
     return accepted[slot / CHUNK_ROWS][slot % CHUNK_ROWS] != 0;
   }
 
   /** A row's value of a parameter, NaN when the mode has none or the fit failed. */
   public float value(long row, Parameter p) {
-    int slot = (int) (row % capacity);
+    int slot = slot(row);
     return values[slot / CHUNK_ROWS][p.ordinal()][slot % CHUNK_ROWS];
   }
 
   /** The baseline in force at a row, NaN while it is being learnt. */
   public float baseline(long row, Parameter p) {
-    int slot = (int) (row % capacity);
+    int slot = slot(row);
     return baselines[slot / CHUNK_ROWS][p.ordinal()][slot % CHUNK_ROWS];
   }
 
   /** Ordinal of a row's health state of a parameter ({@link HealthState#ordinal()}). */
   public int stateOrdinal(long row, Parameter p) {
-    int slot = (int) (row % capacity);
+    int slot = slot(row);
     return states[slot / CHUNK_ROWS][p.ordinal()][slot % CHUNK_ROWS];
   }
 
   public HealthState overall(long row) {
-    int slot = (int) (row % capacity);
+    int slot = slot(row);
     return STATES[overall[slot / CHUNK_ROWS][slot % CHUNK_ROWS]];
   }
 
